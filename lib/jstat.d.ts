@@ -10,6 +10,10 @@ declare module "jstat" {
     studentt: { cdf(x: number, df: number): number; inv(p: number, df: number): number; pdf(x: number, df: number): number };
     centralF: { cdf(x: number, df1: number, df2: number): number; inv(p: number, df1: number, df2: number): number; pdf(x: number, df1: number, df2: number): number };
     chisquare: { cdf(x: number, df: number): number; inv(p: number, df: number): number; pdf(x: number, df: number): number };
+    /** (value − mean(sample)) / (sample SD / √n), sample SD with n − 1. */
+    tscore(value: number, sample: number[]): number;
+    /** p of the one-sample t-test of `value` against `sample`; sides 1 or 2. */
+    ttest(value: number, sample: number[], sides: 1 | 2): number;
   } & Record<string, unknown>;
   const jStatDefault: typeof jStat;
   export default jStatDefault;
