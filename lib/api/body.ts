@@ -1,0 +1,47 @@
+import type { z } from "zod";
+import { badRequest, tooLarge, unsupportedType } from "@/lib/errors";
+
+/** JSON bodies above this are refused with 413. */
+export const JSON_BODY_LIMIT = 1024 * 1024;
+
+/**
+ * Reads a JSON body with a size limit, then validates it with the schema.
+ * @throws AppError 415 (not JSON), 413 (over the limit), 400 (malformed JSON); ZodError (→ 422).
+ */
+export async function readJson<S extends z.ZodType>(request: Request, schema: S): Promise<z.output<S>> {
+  const type = request.headers.get("content-type") ?? "";
+  if (!type.toLowerCase().startsWith("application/json")) throw unsupportedType("Send the body as application/json.");
+  const declared = Number(request.headers.get("content-length") ?? "0");
+  if (declared > JSON_BODY_LIMIT) throw tooLarge(`The body is over the ${JSON_BODY_LIMIT} byte limit.`);
+  const text = await readLimited(request, JSON_BODY_LIMIT);
+  let value: unknown;
+  try {
+    value = JSON.parse(text);
+  } catch (e) {
+    throw badRequest(`Malformed JSON: ${e instanceof Error ? e.message : String(e)}`);
+  }
+  return schema.parse(value);
+}
+
+async function readLimited(request: Request, limit: number): Promise<string> {
+  if (!request.body) return "";
+  const reader = request.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let size = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    size += value.byteLength;
+    if (size > limit) {
+      await reader.cancel();
+      throw tooLarge(`The body is over the ${limit} byte limit.`);
+    }
+    chunks.push(value);
+  }
+  return new TextDecoder().decode(Buffer.concat(chunks));
+}
+
+/** Parses route params (or search params) with a schema; a failure is a 422 through ZodError. */
+export function parseParams<S extends z.ZodType>(schema: S, value: unknown): z.output<S> {
+  return schema.parse(value);
+}

@@ -1,0 +1,44 @@
+import { z } from "zod";
+
+/**
+ * The environment, read once and validated. Import `env` instead of reading process.env.
+ * Outside development a missing NEXTAUTH_SECRET stops the start with a clear message.
+ */
+// `next build` evaluates modules without the runtime secrets; the running server checks them (instrumentation.ts).
+const isDev = process.env.NODE_ENV !== "production" || process.env.NEXT_PHASE === "phase-production-build";
+
+const schema = z.object({
+  NODE_ENV: z.enum(["development", "test", "production"]).default("development"),
+  NEXTAUTH_URL: z.url().default("http://localhost:3000"),
+  NEXTAUTH_SECRET: isDev
+    ? z.string().min(16).default("development-only-secret-not-for-use")
+    : z.string({ error: "NEXTAUTH_SECRET is required outside development: set it to a long random string (npm start generates one in .data/secret)" }).min(16, "NEXTAUTH_SECRET must be at least 16 characters"),
+  DB_HOST: z.string().default("127.0.0.1"),
+  DB_PORT: z.coerce.number().int().positive().default(3307),
+  DB_NAME: z.string().regex(/^[A-Za-z0-9_]+$/).default("yawpoint"),
+  DB_USER: z.string().default("yawpoint"),
+  DB_PASSWORD: z.string().default("yawpoint-local"),
+  SMTP_HOST: z.string().default("127.0.0.1"),
+  SMTP_PORT: z.coerce.number().int().positive().default(2525),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASSWORD: z.string().optional(),
+  SMTP_SECURE: z.enum(["true", "false"]).default("false").transform((v) => v === "true"),
+  MAIL_FROM: z.string().default("Yawpoint <no-reply@yawpoint.invalid>"),
+  MAIL_FAKE_HTTP_PORT: z.coerce.number().int().positive().default(2580),
+  MAIL_FAKE: z.enum(["true", "false"]).default("true").transform((v) => v === "true"),
+  STORAGE_DIR: z.string().default("./storage"),
+  EXPORTS_DIR: z.string().default("./exports"),
+});
+
+export type Env = z.infer<typeof schema>;
+
+export function parseEnv(source: Record<string, string | undefined>): Env {
+  const result = schema.safeParse(source);
+  if (!result.success) {
+    const lines = result.error.issues.map((i) => `  ${i.path.join(".")}: ${i.message}`);
+    throw new Error(`Invalid environment:\n${lines.join("\n")}`);
+  }
+  return result.data;
+}
+
+export const env: Env = parseEnv(process.env);

@@ -1,0 +1,34 @@
+import { defineConfig, devices } from "@playwright/test";
+
+const port = Number(process.env.PORT ?? 3100);
+const baseURL = `http://127.0.0.1:${port}`;
+
+// Debian's Chromium, never a downloaded browser (scripts/setup.sh installs it with apt-get).
+export default defineConfig({
+  testDir: "./tests/e2e",
+  fullyParallel: false,
+  workers: 1,
+  retries: 0,
+  timeout: 60_000,
+  reporter: [["list"], ["json", { outputFile: "test-results/playwright.json" }]],
+  use: {
+    baseURL,
+    trace: "retain-on-failure",
+    launchOptions: { executablePath: "/usr/bin/chromium", args: ["--disable-background-networking", "--disable-component-update", "--disable-sync", "--no-first-run"] },
+  },
+  projects: [{ name: "chromium", use: { ...devices["Desktop Chrome"], channel: undefined } }],
+  webServer: {
+    command: `npx next start -H 127.0.0.1 -p ${port}`,
+    url: `${baseURL}/api/health`,
+    reuseExistingServer: false,
+    timeout: 120_000,
+    env: {
+      NODE_ENV: "production",
+      NEXTAUTH_URL: baseURL,
+      NEXTAUTH_SECRET: process.env.NEXTAUTH_SECRET ?? "test-secret-not-for-production-0000",
+      DB_NAME: process.env.DB_NAME ?? "yawpoint_test",
+      SMTP_PORT: process.env.SMTP_PORT ?? "2526",
+      MAIL_FAKE_HTTP_PORT: process.env.MAIL_FAKE_HTTP_PORT ?? "2581",
+    },
+  },
+});

@@ -1,0 +1,17 @@
+// Prints one closing line over every runner: "tests: N passed, N failed, N skipped".
+import { existsSync, readFileSync } from "node:fs";
+
+let passed = 0, failed = 0, skipped = 0;
+const missing = [];
+if (existsSync("test-results/vitest.json")) {
+  const v = JSON.parse(readFileSync("test-results/vitest.json", "utf8"));
+  passed += v.numPassedTests; failed += v.numFailedTests + (v.numFailedTestSuites ?? 0); skipped += v.numPendingTests + (v.numTodoTests ?? 0);
+} else missing.push("vitest");
+if (existsSync("test-results/playwright.json")) {
+  const p = JSON.parse(readFileSync("test-results/playwright.json", "utf8"));
+  passed += p.stats.expected; failed += p.stats.unexpected + p.stats.flaky; skipped += p.stats.skipped;
+  if ((p.errors ?? []).length) failed += p.errors.length;
+} else missing.push("playwright");
+if (missing.length) console.log(`test-summary: no results from ${missing.join(", ")}`);
+console.log(`tests: ${passed} passed, ${failed + missing.length} failed, ${skipped} skipped`);
+process.exit(failed + missing.length > 0 ? 1 : 0);
