@@ -1,0 +1,108 @@
+// npm run replay -- --config FILE.json SAMPLES.csv
+// Replays a raw sensor stream through the motion engine and prints t_ms,yaw_deg,pitch_deg (view
+// mode) or t_ms,x_px,y_px (cursor mode): the accumulated output from 0 at the first sample.
+// Bad input: exit 2, one line on stderr naming file, line and column, nothing on stdout.
+import { readFileSync } from "node:fs";
+import { writeSync } from "node:fs";
+import { createMotionEngine } from "../../lib/motion/engine";
+import { parseTransferConfig, TransferConfigError, type TransferConfig } from "../../lib/motion/config";
+import { parseSampleCsv, sampleFromTable, SampleCsvError } from "../../lib/motion/csv";
+import type { MotionSample } from "../../lib/motion/sample";
+
+function fail(message: string): never {
+  process.stderr.write(message.replace(/\n/g, " ") + "\n");
+  process.exit(2);
+}
+
+function lineOfKey(text: string, key: string): number {
+  const at = text.indexOf(`"${key}"`);
+  return at < 0 ? 1 : text.slice(0, at).split("\n").length;
+}
+
+function columnOfKey(text: string, key: string): number {
+  const at = text.indexOf(`"${key}"`);
+  if (at < 0) return 1;
+  return at - text.lastIndexOf("\n", at - 1);
+}
+
+function readConfig(file: string): TransferConfig {
+  let text: string;
+  try {
+    text = readFileSync(file, "utf8");
+  } catch {
+    fail(`${file}:1:1: cannot read file`);
+  }
+  let json: unknown;
+  try {
+    json = JSON.parse(text);
+  } catch (error) {
+    const m = /position (\d+)/.exec(String((error as Error).message));
+    const pos = m ? Number(m[1]) : 0;
+    const before = text.slice(0, pos);
+    const line = before.split("\n").length;
+    fail(`${file}:${line}:${pos - before.lastIndexOf("\n")}: not valid JSON`);
+  }
+  try {
+    return parseTransferConfig(json);
+  } catch (error) {
+    if (!(error instanceof TransferConfigError)) throw error;
+    const first = error.issues[0] ?? "(configuration): invalid";
+    const field = first.slice(0, first.indexOf(":"));
+    const key = field.split(/[.,]/)[0]?.trim() ?? field;
+    fail(`${file}:${lineOfKey(text, key)}:${columnOfKey(text, key)}: ${first}`);
+  }
+}
+
+function parseArgs(argv: string[]): { config: string; samples: string } {
+  let config: string | undefined, samples: string | undefined;
+  for (let i = 0; i < argv.length; i++) {
+    const a = argv[i];
+    if (a === "--config") config = argv[++i];
+    else if (a?.startsWith("--config=")) config = a.slice(9);
+    else if (a?.startsWith("--")) fail(`replay: unknown option ${a} (usage: npm run replay -- --config FILE.json SAMPLES.csv)`);
+    else if (samples === undefined) samples = a;
+    else fail(`replay: more than one samples file (usage: npm run replay -- --config FILE.json SAMPLES.csv)`);
+  }
+  if (!config || !samples) fail("replay: usage: npm run replay -- --config FILE.json SAMPLES.csv");
+  return { config, samples };
+}
+
+const round = (v: number): number => Math.round(v * 1e6) / 1e6;
+
+function main(): void {
+  const args = parseArgs(process.argv.slice(2));
+  const config = readConfig(args.config);
+  let text: string;
+  try {
+    text = readFileSync(args.samples, "utf8");
+  } catch {
+    fail(`${args.samples}:1:1: cannot read file`);
+  }
+  let table;
+  try {
+    table = parseSampleCsv(text, args.samples);
+  } catch (error) {
+    if (error instanceof SampleCsvError) fail(error.message);
+    throw error;
+  }
+  const engine = createMotionEngine(config);
+  const sample: MotionSample = { tMs: 0, gyroX: 0, gyroY: 0, gyroZ: 0 };
+  const cursor = config.displayMode === "cursor";
+  let x = 0, y = 0;
+  let chunk = cursor ? "t_ms,x_px,y_px\n" : "t_ms,yaw_deg,pitch_deg\n";
+  for (let i = 0; i < table.length; i++) {
+    const step = engine.push(sampleFromTable(table, i, sample));
+    if (step) {
+      x += step.dx;
+      y += step.dy;
+    }
+    chunk += `${sample.tMs},${round(x)},${round(y)}\n`;
+    if (chunk.length > 1 << 16) {
+      writeSync(1, chunk);
+      chunk = "";
+    }
+  }
+  writeSync(1, chunk);
+}
+
+main();

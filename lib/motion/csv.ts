@@ -1,0 +1,284 @@
+import { parse } from "csv-parse/sync";
+import type { MotionSample } from "./sample";
+
+/** Columns of the raw sensor stream (interfaces.md), plus the project's pointer columns. */
+export const sampleColumns = [
+  "t_ms", "gyro_x", "gyro_y", "gyro_z", "accel_x", "accel_y", "accel_z",
+  "stick_x", "stick_y", "buttons", "screen_angle", "pointer_dx", "pointer_dy",
+] as const;
+export type SampleColumn = (typeof sampleColumns)[number];
+const requiredColumns: readonly SampleColumn[] = ["t_ms", "gyro_x", "gyro_y", "gyro_z"];
+
+/** Bad input in a sample stream: names the file, the line (1 = header) and the column. */
+export class SampleCsvError extends Error {
+  readonly file: string;
+  readonly line: number;
+  readonly column: string;
+  readonly reason: string;
+  constructor(file: string, line: number, column: string, reason: string) {
+    super(`${file}:${line}:${column}: ${reason}`);
+    this.name = "SampleCsvError";
+    this.file = file;
+    this.line = line;
+    this.column = column;
+    this.reason = reason;
+  }
+}
+
+/** A parsed stream, column-wise (compact for millions of rows). NaN marks an empty optional field. */
+export interface SampleTable {
+  length: number;
+  columns: Record<SampleColumn, Float64Array>;
+  /** Whether the header had the column at all. */
+  present: Record<SampleColumn, boolean>;
+  /** The columns in `sampleColumns` order (null where absent), for the parser's inner loop. */
+  targets: (Float64Array | null)[];
+}
+
+function emptyTable(capacity: number, present: Record<SampleColumn, boolean>): SampleTable {
+  const columns = {} as Record<SampleColumn, Float64Array>;
+  for (const name of sampleColumns) columns[name] = new Float64Array(present[name] ? capacity : 0);
+  const targets = sampleColumns.map((name) => (present[name] ? columns[name] : null));
+  return { length: 0, columns, present, targets };
+}
+
+function countLines(text: string): number {
+  let n = 0, i = -1;
+  while ((i = text.indexOf("\n", i + 1)) !== -1) n++;
+  return n + 1;
+}
+
+/** Checks one row's values (already numbers or NaN for empty) and stores them. */
+const valueAt = (values: Float64Array, c: number): number => values[c] as number;
+
+function storeRow(table: SampleTable, values: Float64Array, file: string, line: number): void {
+  const row = table.length;
+  for (let k = 0; k < 4; k++) {
+    if (Number.isNaN(valueAt(values, k))) throw new SampleCsvError(file, line, sampleColumns[k] as string, "empty");
+  }
+  const ax = Number.isNaN(valueAt(values, 4)), ay = Number.isNaN(valueAt(values, 5)), az = Number.isNaN(valueAt(values, 6));
+  if (table.present.accel_x || table.present.accel_y || table.present.accel_z) {
+    if (!(ax === ay && ay === az)) {
+      const missing = ax ? "accel_x" : ay ? "accel_y" : "accel_z";
+      throw new SampleCsvError(file, line, missing, "empty while another acceleration field is given");
+    }
+  }
+  const stickX = valueAt(values, 7), stickY = valueAt(values, 8);
+  if (stickX < -1 || stickX > 1) throw new SampleCsvError(file, line, "stick_x", "outside -1..1");
+  if (stickY < -1 || stickY > 1) throw new SampleCsvError(file, line, "stick_y", "outside -1..1");
+  const b = valueAt(values, 9);
+  if (!Number.isNaN(b) && (!Number.isInteger(b) || b < 0 || b > 0xffffffff)) {
+    throw new SampleCsvError(file, line, "buttons", "not a non-negative integer bitmask");
+  }
+  if (row > 0 && valueAt(values, 0) < (table.columns.t_ms[row - 1] as number)) {
+    throw new SampleCsvError(file, line, "t_ms", "time goes backwards");
+  }
+  const targets = table.targets;
+  for (let k = 0; k < targets.length; k++) {
+    const target = targets[k];
+    if (target) target[row] = valueAt(values, k);
+  }
+  table.length = row + 1;
+}
+
+const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22];
+
+/**
+ * Parse the decimal number in text[start, end) without creating a substring; NaN for an empty
+ * field; falls back to Number() for anything but plain [-+]digits[.digits]. Plain fields of at most
+ * 15 significant digits are exact: an integer mantissa below 2^53 divided by an exact power of ten
+ * is correctly rounded (Clinger's fast path, PLDI 1990).
+ */
+function fastFieldValue(text: string, start: number, end: number, file: string, line: number, column: string): number {
+  while (start < end && text.charCodeAt(start) === 32) start++;
+  while (end > start && text.charCodeAt(end - 1) === 32) end--;
+  if (start === end) return NaN;
+  let i = start, negative = false;
+  const first = text.charCodeAt(i);
+  if (first === 45 || first === 43) {
+    negative = first === 45;
+    i++;
+  }
+  let mantissa = 0, digits = 0, fraction = 0, seenDot = false, plain = i < end;
+  for (; i < end; i++) {
+    const ch = text.charCodeAt(i);
+    if (ch >= 48 && ch <= 57) {
+      if (mantissa !== 0 || ch !== 48) digits++;
+      mantissa = mantissa * 10 + (ch - 48);
+      if (seenDot) fraction++;
+    } else if (ch === 46 && !seenDot) {
+      seenDot = true;
+    } else {
+      plain = false;
+      break;
+    }
+  }
+  if (plain && digits <= 15 && fraction <= 22 && (fraction > 0 || !seenDot || end - start > 1)) {
+    const x = mantissa / (POW10[fraction] as number);
+    return negative ? -x : x;
+  }
+  return fieldValue(text.slice(start, end), file, line, column);
+}
+
+function fieldValue(raw: string, file: string, line: number, column: string): number {
+  const s = raw.trim();
+  if (s === "") return NaN;
+  const x = Number(s);
+  if (!Number.isFinite(x)) throw new SampleCsvError(file, line, column, "not a number");
+  return x;
+}
+
+function headerLayout(names: string[], file: string): { index: Int16Array; present: Record<SampleColumn, boolean> } {
+  // index[f] = which sample column field f feeds (−1: ignored)
+  const index = new Int16Array(names.length).fill(-1);
+  const present = {} as Record<SampleColumn, boolean>;
+  for (const c of sampleColumns) present[c] = false;
+  names.forEach((raw, f) => {
+    const k = (sampleColumns as readonly string[]).indexOf(raw.trim());
+    if (k >= 0) {
+      if (present[sampleColumns[k] as SampleColumn]) throw new SampleCsvError(file, 1, raw.trim(), "column appears twice");
+      index[f] = k;
+      present[sampleColumns[k] as SampleColumn] = true;
+    }
+  });
+  for (const c of requiredColumns) if (!present[c]) throw new SampleCsvError(file, 1, c, "missing column");
+  return { index, present };
+}
+
+/**
+ * Parse a raw sensor stream (parseSampleCsv).
+ *
+ * Purpose: read the replay format of interfaces.md (header row; `t_ms, gyro_x, gyro_y, gyro_z`
+ * required; `accel_*`, `stick_*`, `buttons`, `screen_angle`, `pointer_dx/dy` optional, fields may
+ * be empty) into a column-wise table, validating every field. Plain numeric files take a fast
+ * scanner; any file containing a double quote goes through csv-parse (RFC 4180 quoting).
+ * Source: interfaces.md "Raw sensor stream"; RFC 4180. Cost: O(characters).
+ * @throws SampleCsvError "samples.csv:17:gyro_y: not a number" (file, line, column, reason).
+ * @example parseSampleCsv("t_ms,gyro_x,gyro_y,gyro_z\n0,1,2,3\n", "a.csv").columns.gyro_z[0] // 3
+ */
+export function parseSampleCsv(text: string, file: string): SampleTable {
+  if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
+  if (text.trim() === "") throw new SampleCsvError(file, 1, "t_ms", "empty file");
+  return text.includes('"') ? parseQuoted(text, file) : parsePlain(text, file);
+}
+
+function parsePlain(text: string, file: string): SampleTable {
+  let end = text.indexOf("\n");
+  if (end === -1) end = text.length;
+  const header = text.slice(0, end).replace(/\r$/, "").split(",");
+  const { index, present } = headerLayout(header, file);
+  const table = emptyTable(countLines(text), present);
+  const values = new Float64Array(sampleColumns.length);
+  const nFields = header.length;
+  let pos = end + 1, line = 1;
+  while (pos < text.length) {
+    line++;
+    let lineEnd = text.indexOf("\n", pos);
+    if (lineEnd === -1) lineEnd = text.length;
+    let stop = lineEnd;
+    if (stop > pos && text.charCodeAt(stop - 1) === 13) stop--;
+    if (stop === pos) {
+      pos = lineEnd + 1;
+      continue; // blank line
+    }
+    values.fill(NaN);
+    let f = 0, start = pos;
+    for (;;) {
+      let comma = text.indexOf(",", start);
+      if (comma === -1 || comma > stop) comma = stop;
+      if (f >= nFields) throw new SampleCsvError(file, line, "(row)", `more than ${nFields} fields`);
+      const k = index[f] as number;
+      if (k >= 0) values[k] = fastFieldValue(text, start, comma, file, line, sampleColumns[k] as string);
+      f++;
+      if (comma === stop) break;
+      start = comma + 1;
+    }
+    if (f < nFields) throw new SampleCsvError(file, line, (header[f] ?? "").trim(), "missing field");
+    storeRow(table, values, file, line);
+    pos = lineEnd + 1;
+  }
+  return table;
+}
+
+function parseQuoted(text: string, file: string): SampleTable {
+  let records: { record: string[]; info: { lines: number } }[];
+  try {
+    records = parse(text, { info: true, skip_empty_lines: true, relax_column_count: true }) as unknown as typeof records;
+  } catch (error) {
+    const e = error as { lines?: number; column?: number | string; message?: string };
+    throw new SampleCsvError(file, e.lines ?? 1, String(e.column ?? "(row)"), "malformed CSV");
+  }
+  const first = records[0];
+  if (!first) throw new SampleCsvError(file, 1, "t_ms", "empty file");
+  const header = first.record;
+  const { index, present } = headerLayout(header, file);
+  const table = emptyTable(records.length, present);
+  const values = new Float64Array(sampleColumns.length);
+  for (let r = 1; r < records.length; r++) {
+    const { record, info } = records[r] as (typeof records)[number];
+    const line = info.lines;
+    if (record.length > header.length) throw new SampleCsvError(file, line, "(row)", `more than ${header.length} fields`);
+    if (record.length < header.length) throw new SampleCsvError(file, line, (header[record.length] ?? "").trim(), "missing field");
+    values.fill(NaN);
+    record.forEach((raw, f) => {
+      const k = index[f] as number;
+      if (k >= 0) values[k] = fieldValue(raw, file, line, sampleColumns[k] as string);
+    });
+    storeRow(table, values, file, line);
+  }
+  return table;
+}
+
+/**
+ * Row i of a table as a sample, written into `out` (sampleFromTable).
+ *
+ * Purpose: replay millions of rows through the engine reusing one object. Source: the table
+ * layout above. Cost: O(1), no allocation.
+ * @throws never (i must be < table.length).
+ * @example sampleFromTable(parseSampleCsv("t_ms,gyro_x,gyro_y,gyro_z\n5,1,2,3\n", "a.csv"), 0, { tMs: 0, gyroX: 0, gyroY: 0, gyroZ: 0 }).tMs // 5
+ */
+export function sampleFromTable(table: SampleTable, i: number, out: MotionSample): MotionSample {
+  const c = table.columns, p = table.present;
+  out.tMs = c.t_ms[i] as number;
+  out.gyroX = c.gyro_x[i] as number;
+  out.gyroY = c.gyro_y[i] as number;
+  out.gyroZ = c.gyro_z[i] as number;
+  out.accelX = optionalAt(c.accel_x, p.accel_x, i);
+  out.accelY = optionalAt(c.accel_y, p.accel_y, i);
+  out.accelZ = optionalAt(c.accel_z, p.accel_z, i);
+  out.stickX = optionalAt(c.stick_x, p.stick_x, i);
+  out.stickY = optionalAt(c.stick_y, p.stick_y, i);
+  out.buttons = optionalAt(c.buttons, p.buttons, i);
+  out.screenAngleDeg = optionalAt(c.screen_angle, p.screen_angle, i);
+  out.pointerDx = optionalAt(c.pointer_dx, p.pointer_dx, i);
+  out.pointerDy = optionalAt(c.pointer_dy, p.pointer_dy, i);
+  return out;
+}
+
+function optionalAt(column: Float64Array, present: boolean, i: number): number | undefined {
+  if (!present) return undefined;
+  const v = column[i] as number;
+  return v === v ? v : undefined;
+}
+
+const cell = (v: number | undefined): string => (v === undefined ? "" : String(v));
+
+/**
+ * Write samples in the replay format (formatSampleCsv).
+ *
+ * Purpose: recorded or simulated streams in the format `npm run replay` reads; pointer columns
+ * only when a sample has them. Source: interfaces.md "Raw sensor stream". Cost: O(n).
+ * @throws never.
+ * @example formatSampleCsv([{ tMs: 0, gyroX: 1, gyroY: 2, gyroZ: 3 }]).split("\n")[1] // "0,1,2,3,,,,,,,0"
+ */
+export function formatSampleCsv(samples: readonly MotionSample[]): string {
+  const withPointer = samples.some((s) => s.pointerDx !== undefined || s.pointerDy !== undefined);
+  const header = sampleColumns.slice(0, withPointer ? 13 : 11).join(",");
+  const lines = [header];
+  for (const s of samples) {
+    let row = `${s.tMs},${s.gyroX},${s.gyroY},${s.gyroZ},${cell(s.accelX)},${cell(s.accelY)},${cell(s.accelZ)},${cell(s.stickX)},${cell(s.stickY)},${cell(s.buttons)},${s.screenAngleDeg ?? 0}`;
+    if (withPointer) row += `,${cell(s.pointerDx)},${cell(s.pointerDy)}`;
+    lines.push(row);
+  }
+  return lines.join("\n") + "\n";
+}

@@ -1,0 +1,5 @@
+export { screenFrameX, screenFrameY } from "./screenFrame";
+export { deviceFrameHorizontal } from "./deviceFrame";
+export { gravityFrameHorizontal, gravityFrameVertical } from "./gravityFrame";
+export { adaptiveFrameHorizontal } from "./adaptiveFrame";
+export { updateGravityEstimate, type Vec3 } from "./gravityEstimate";

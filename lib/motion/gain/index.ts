@@ -1,0 +1,5 @@
+export { twoLevelGainFactor } from "./twoLevelGainFactor";
+export { powerGainFactor } from "./powerGainFactor";
+export { speedAfterDeadBand } from "./deadBand";
+export { fineAimDirectWeight, exponentialSmoothingFactor } from "./fineAimSmoothing";
+export { gainAtSpeed } from "./gainAtSpeed";

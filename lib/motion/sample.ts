@@ -1,0 +1,88 @@
+import { z } from "zod";
+
+/**
+ * One input sample, in the units of the W3C Device Orientation and Motion specification.
+ *
+ * - `tMs`: time stamp in ms (any origin; must not go backwards within a stream).
+ * - `gyroX/Y/Z`: angular rate in deg/s about the device axes x (right in the screen plane),
+ *   y (towards the top of the screen), z (out of the screen), natural orientation, right-hand rule
+ *   (`rotationRate.alpha/beta/gamma` in the W3C event). Sources without a gyroscope report zeros.
+ * - `accelX/Y/Z`: acceleration including gravity, m/s², same axes (all three or none).
+ * - `stickX/Y`: thumbstick, −1..1, y down positive (W3C Gamepad standard mapping).
+ * - `buttons`: bitmask, bit i = button i held.
+ * - `pointerDx/Dy`: pointer (mouse or touch drag) movement since the previous sample, CSS px,
+ *   y down positive.
+ * - `screenAngleDeg`: `screen.orientation.angle` (how far the device is turned counter-clockwise
+ *   from its natural orientation; default 0).
+ */
+export interface MotionSample {
+  tMs: number;
+  gyroX: number;
+  gyroY: number;
+  gyroZ: number;
+  accelX?: number | undefined;
+  accelY?: number | undefined;
+  accelZ?: number | undefined;
+  stickX?: number | undefined;
+  stickY?: number | undefined;
+  buttons?: number | undefined;
+  pointerDx?: number | undefined;
+  pointerDy?: number | undefined;
+  screenAngleDeg?: number | undefined;
+}
+
+const finite = z.number().finite();
+
+/** zod schema of a {@link MotionSample}, for boundaries (JSON, stored streams, sources). */
+export const motionSampleSchema = z
+  .object({
+    tMs: finite,
+    gyroX: finite,
+    gyroY: finite,
+    gyroZ: finite,
+    accelX: finite.optional(),
+    accelY: finite.optional(),
+    accelZ: finite.optional(),
+    stickX: finite.min(-1).max(1).optional(),
+    stickY: finite.min(-1).max(1).optional(),
+    buttons: z.number().int().min(0).max(0xffffffff).optional(),
+    pointerDx: finite.optional(),
+    pointerDy: finite.optional(),
+    screenAngleDeg: finite.optional(),
+  })
+  .refine(
+    (s) =>
+      (s.accelX === undefined) === (s.accelY === undefined) &&
+      (s.accelY === undefined) === (s.accelZ === undefined),
+    { message: "accelX, accelY and accelZ must be given together", path: ["accelX"] },
+  );
+
+const isFiniteNumber = (v: unknown): boolean => typeof v === "number" && Number.isFinite(v);
+const isOptionalFinite = (v: unknown): boolean => v === undefined || isFiniteNumber(v);
+
+/**
+ * Sample validity check (allocation-free twin of {@link motionSampleSchema}, for the hot path).
+ *
+ * Purpose: the engine drops, and counts, any sample for which this is false, before touching its
+ * state. Source: the field rules above (W3C units). Cost: O(1), no allocation.
+ * @throws never.
+ * @example isValidSample({ tMs: 0, gyroX: 1, gyroY: NaN, gyroZ: 0 }) // false
+ */
+export function isValidSample(s: MotionSample): boolean {
+  if (s === null || typeof s !== "object") return false;
+  if (!isFiniteNumber(s.tMs) || !isFiniteNumber(s.gyroX) || !isFiniteNumber(s.gyroY) || !isFiniteNumber(s.gyroZ)) {
+    return false;
+  }
+  const ax = s.accelX, ay = s.accelY, az = s.accelZ;
+  if (ax === undefined || ay === undefined || az === undefined) {
+    if (ax !== undefined || ay !== undefined || az !== undefined) return false;
+  } else if (!isFiniteNumber(ax) || !isFiniteNumber(ay) || !isFiniteNumber(az)) {
+    return false;
+  }
+  const sx = s.stickX, sy = s.stickY;
+  if (sx !== undefined && (!isFiniteNumber(sx) || sx < -1 || sx > 1)) return false;
+  if (sy !== undefined && (!isFiniteNumber(sy) || sy < -1 || sy > 1)) return false;
+  const b = s.buttons;
+  if (b !== undefined && (!Number.isInteger(b) || b < 0 || b > 0xffffffff)) return false;
+  return isOptionalFinite(s.pointerDx) && isOptionalFinite(s.pointerDy) && isOptionalFinite(s.screenAngleDeg);
+}

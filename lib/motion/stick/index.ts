@@ -1,0 +1,3 @@
+export { stickRateMagnitude } from "./stickRate";
+export { stickHeadingDeg, wrapAngleDeg } from "./stickHeading";
+export { tiltSidewaysDeg, tiltForwardDeg } from "./tiltAngles";
