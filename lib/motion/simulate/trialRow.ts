@@ -1,0 +1,41 @@
+/** One movement, with the columns of the trial table (interfaces.md "Trial table"). */
+export interface TrialRow {
+  participant: string;
+  condition: string;
+  block: number;
+  sequence: number;
+  trial: number;
+  amplitude: number;
+  width: number;
+  from_x: number;
+  from_y: number;
+  to_x: number;
+  to_y: number;
+  start_x: number;
+  start_y: number;
+  end_x: number;
+  end_y: number;
+  time_ms: number;
+  hit: 0 | 1;
+}
+
+export const trialColumns = [
+  "participant", "condition", "block", "sequence", "trial", "amplitude", "width",
+  "from_x", "from_y", "to_x", "to_y", "start_x", "start_y", "end_x", "end_y", "time_ms", "hit",
+] as const satisfies readonly (keyof TrialRow)[];
+
+const quote = (s: string): string => (/[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s);
+
+/**
+ * Trial rows as a trial-table CSV (formatTrialCsv).
+ *
+ * Purpose: simulated sessions in the format `npm run analyze` reads. Source: interfaces.md
+ * "Trial table"; RFC 4180 quoting. Cost: O(rows).
+ * @throws never.
+ * @example formatTrialCsv([]).trim() // "participant,condition,block,sequence,trial,amplitude,width,from_x,from_y,to_x,to_y,start_x,start_y,end_x,end_y,time_ms,hit"
+ */
+export function formatTrialCsv(rows: readonly TrialRow[]): string {
+  const lines = [trialColumns.join(",")];
+  for (const r of rows) lines.push(trialColumns.map((c) => (typeof r[c] === "string" ? quote(r[c] as string) : String(r[c]))).join(","));
+  return lines.join("\n") + "\n";
+}
