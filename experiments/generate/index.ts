@@ -1,0 +1,3 @@
+export { generateTrialRows, generatorOptionsSchema, type GeneratorOptions } from "./generateTrialRows";
+export { writeTrialTable } from "./writeTrialTable";
+export { seededRandom, normalFrom } from "./random";

@@ -1,0 +1,16 @@
+export { EFFECTIVE_WIDTH_FACTOR, effectiveWidth } from "./effectiveWidth";
+export { effectiveIndexOfDifficulty } from "./effectiveIndexOfDifficulty";
+export { throughput } from "./throughput";
+export { widthFromErrorRate } from "./widthFromErrorRate";
+export { projectMovement, type MovementProjection, type StartPoint } from "./projectMovement";
+export { isMisfire } from "./isMisfire";
+export { pathAccuracy, type PathAccuracy, type PathAccuracyOptions } from "./pathAccuracy";
+export { analysisOptionsSchema, type AnalysisOptions, type AnalysisOptionsInput } from "./options";
+export type * from "./result";
+export { movementKey, sequenceKey, mergeSequenceStates, type SequenceState } from "./sequenceState";
+export { TrialAccumulator } from "./trialAccumulator";
+export { summarizeSequences } from "./summarizeSequences";
+export { cellMeans, aggregate } from "./aggregate";
+export { buildResult } from "./buildResult";
+export { analyzeTrials, analyzeLegacyTrials } from "./analyzeTrials";
+export { analyzeTrialStream, type StreamAnalysisOptions } from "./analyzeTrialStream";

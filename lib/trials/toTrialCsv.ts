@@ -1,0 +1,59 @@
+import { TRIAL_COLUMNS, FACTOR_PREFIX } from "./columns";
+import type { TrialRow } from "./trialRow";
+
+function quote(text: string): string {
+  return /[",\r\n]/.test(text) || text !== text.trim() ? `"${text.replace(/"/g, '""')}"` : text;
+}
+
+/** The header line of a trial table with the given factor names (f_NAME columns, in that order). */
+export function trialCsvHeader(factorNames: readonly string[]): string {
+  return [...TRIAL_COLUMNS, ...factorNames.map((f) => FACTOR_PREFIX + f)].map(quote).join(",");
+}
+
+/**
+ * Formats one movement as a trial-table CSV line (no line break), columns in TRIAL_COLUMNS order
+ * then f_NAME for each factor name given. Numbers use JavaScript's shortest round-trip form.
+ *
+ * Cost: O(columns).
+ * @throws Error when the row lacks a level for one of the factor names.
+ * @example formatTrialRow(row, ["technique"]) // "P01,motion-6,1,1,1,256,32,0,-128,0,128,1.5,-126,2,130,612.5,1,motion"
+ */
+export function formatTrialRow(row: TrialRow, factorNames: readonly string[]): string {
+  const factorValues = factorNames.map((f) => {
+    const v = row.factors[f];
+    if (v === undefined) throw new Error(`formatTrialRow requires a level for factor ${f}`);
+    return quote(v);
+  });
+  return [
+    quote(row.participant),
+    quote(row.condition),
+    row.block,
+    row.sequence,
+    row.trial,
+    row.amplitude,
+    row.width,
+    row.fromX,
+    row.fromY,
+    row.toX,
+    row.toY,
+    row.startX,
+    row.startY,
+    row.endX,
+    row.endY,
+    row.timeMs,
+    row.hit ? 1 : 0,
+    ...factorValues,
+  ].join(",");
+}
+
+/**
+ * A whole trial table as CSV text (header, one line per movement, "\n" line ends, final newline).
+ * The factor columns are the union of the rows' factor names, sorted.
+ *
+ * Cost: O(rows × columns).
+ * @throws Error as formatTrialRow when a row lacks a factor another row has.
+ */
+export function toTrialCsv(rows: readonly TrialRow[]): string {
+  const names = [...new Set(rows.flatMap((r) => Object.keys(r.factors)))].sort();
+  return [trialCsvHeader(names), ...rows.map((r) => formatTrialRow(r, names))].join("\n") + "\n";
+}
