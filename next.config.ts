@@ -29,6 +29,8 @@ const securityHeaders = [
 
 const config: NextConfig = {
   serverExternalPackages: ["knex", "mysql2", "smtp-server", "mailparser", "nodemailer"],
+  // Several checkouts' builds can sit side by side (NEXT_DIST_DIR); the default is .next.
+  distDir: process.env.NEXT_DIST_DIR ?? ".next",
   poweredByHeader: false,
   typedRoutes: false,
   // Type checking is its own stage of `npm test` (tsc --noEmit over the whole tree), so the build skips it.
