@@ -1,0 +1,66 @@
+import { spawnSync } from "node:child_process";
+import { describe, expect, test } from "vitest";
+
+const FIX = "tests/fixtures/analysis/";
+function run(...args: string[]) {
+  const r = spawnSync("npx", ["tsx", "--no-warnings", "experiments/cli/analyze.ts", ...args], { encoding: "utf8" });
+  return { status: r.status, stdout: r.stdout, stderr: r.stderr };
+}
+
+describe("analyze CLI: bad input → exit 2, one stderr line FILE:LINE:COLUMN, nothing on stdout", () => {
+  const cases: [string, RegExp][] = [
+    ["missing-column.csv", /^tests\/fixtures\/analysis\/missing-column\.csv:1:hit: missing column "hit"\n$/],
+    ["not-a-number.csv", /^tests\/fixtures\/analysis\/not-a-number\.csv:4:from_y: not a number: "abc"\n$/],
+    ["empty.csv", /^tests\/fixtures\/analysis\/empty\.csv:1:\(header\): empty file/],
+    ["short-sequence.csv", /^tests\/fixtures\/analysis\/short-sequence\.csv:82:sequence: sequence 99 .* at least 2 are needed\n$/],
+    ["zero-width.csv", /^tests\/fixtures\/analysis\/zero-width\.csv:6:width: width must be > 0, got 0\n$/],
+  ];
+  test.each(cases)("%s", (file, pattern) => {
+    const r = run(FIX + file, "--json");
+    expect(r.status).toBe(2);
+    expect(r.stdout).toBe("");
+    expect(r.stderr).toMatch(pattern);
+    expect(r.stderr.trimEnd().split("\n")).toHaveLength(1);
+  });
+  test("a file that does not exist", () => {
+    const r = run(FIX + "nope.csv");
+    expect(r.status).toBe(2);
+    expect(r.stdout).toBe("");
+    expect(r.stderr).toMatch(/nope\.csv:1:\(file\): cannot read/);
+  });
+});
+
+describe("analyze CLI: JSON follows the contract", () => {
+  test("top-level keys and row shapes", () => {
+    const r = run(FIX + "good.csv", "--json", "--start", "nominal", "--exclude", "none", "--unit", "mm");
+    expect(r.status).toBe(0);
+    const j = JSON.parse(r.stdout);
+    const contract = ["unit", "start", "exclude", "excluded", "sequences", "cells", "conditions", "regression", "anova", "posthoc"];
+    expect(Object.keys(j).slice(0, contract.length)).toEqual(contract);
+    expect([j.unit, j.start, j.exclude, j.excluded]).toEqual(["mm", "nominal", "none", 0]);
+    for (const k of ["participant", "condition", "block", "sequence", "amplitude", "width", "n", "errorRate", "ae", "sdx", "we", "ide", "mt", "tp"]) {
+      expect(typeof j.sequences[0][k]).toBe(["participant", "condition"].includes(k) ? "string" : "number");
+    }
+    expect(Object.keys(j.cells[0])).toEqual(expect.arrayContaining(["participant", "condition", "tp", "mt", "errorRate", "we", "ide"]));
+    expect(Object.keys(j.conditions[0].tp)).toEqual(["mean", "sd", "ci95"]);
+    expect(j.conditions[0].ci95).toBeUndefined();
+    expect(Object.keys(j.regression[0])).toEqual(expect.arrayContaining(["condition", "intercept", "slope", "r2"]));
+    expect(Object.keys(j.anova[0]).slice(0, 8)).toEqual(["effect", "df1", "df2", "F", "p", "epsilonGG", "pGG", "partialEta2"]);
+    expect(j.anova.map((a: { effect: string }) => a.effect)).toEqual(["condition", "technique"]);
+    expect(Object.keys(j.posthoc[0])).toEqual(["a", "b", "meanDiff", "t", "df", "p", "pHolm", "dz"]);
+    // 4 participants × 2 conditions × 2 widths × 1 sequence of 5 movements.
+    expect(j.sequences).toHaveLength(16);
+    expect(j.sequences[0].n).toBe(5);
+  });
+  test("readable tables without --json", () => {
+    const r = run(FIX + "good.csv");
+    expect(r.status).toBe(0);
+    expect(r.stdout).toMatch(/Repeated-measures ANOVA on TP/);
+    expect(r.stdout).toMatch(/motion-4/);
+  });
+  test("bad option value → exit 2", () => {
+    const r = run(FIX + "good.csv", "--start", "sideways");
+    expect(r.status).toBe(2);
+    expect(r.stdout).toBe("");
+  });
+});
