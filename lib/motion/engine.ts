@@ -86,6 +86,7 @@ export function createMotionEngine(input: TransferConfigInput | TransferConfig):
   let smoothX = 0, smoothY = 0;
   let tiltRefSet = false, tiltRefSideways = 0, tiltRefForward = 0;
   let atRim = false, rimHeading = 0, pendingTurn = 0, pendingMs = 0;
+  let cachedAngle = 0, cosA = 1, sinA = 0;
 
   const bit = (buttons: number, mask: number): boolean => mask !== 0 && Math.floor(buttons / mask) % 2 === 1;
 
@@ -156,9 +157,15 @@ export function createMotionEngine(input: TransferConfigInput | TransferConfig):
       }
     }
 
+    // screen frame (screenFrameX/Y, with the angle's cosine and sine cached)
     const angle = s.screenAngleDeg ?? 0;
-    const rx = screenFrameX(wx, wy, angle), ry = screenFrameY(wx, wy, angle), rz = wz;
-    const ux = screenFrameX(up.x, up.y, angle), uy = screenFrameY(up.x, up.y, angle), uz = up.z;
+    if (angle !== cachedAngle) {
+      cachedAngle = angle;
+      cosA = screenFrameX(1, 0, angle);
+      sinA = screenFrameY(1, 0, angle);
+    }
+    const rx = wx * cosA - wy * sinA, ry = wx * sinA + wy * cosA, rz = wz;
+    const ux = up.x * cosA - up.y * sinA, uy = up.x * sinA + up.y * cosA, uz = up.z;
 
     let viewX = 0, viewY = 0; // view degrees, y up
     if (motionChannel) {

@@ -1,0 +1,145 @@
+// npm run bench:motion — motion engine throughput and replay speed.
+// 1. 10 M samples through the most expensive configuration (gravity frame with fused gravity,
+//    power curve, dead band, fine-aim smoothing, added latency, motion+stick, screen angle 90):
+//    ns per sample (median of several runs), heap before/after (after GC), GCs during the run.
+// 2. Replay of a 1 M-sample CSV end to end (`tsx experiments/cli/replay.ts`, a fresh process
+//    each run, output to /dev/null): wall time, median of several runs; also the in-process parts.
+import { spawnSync } from "node:child_process";
+import { mkdtempSync, openSync, readFileSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { PerformanceObserver } from "node:perf_hooks";
+import { setFlagsFromString } from "node:v8";
+import { runInNewContext } from "node:vm";
+import { createMotionEngine } from "../../lib/motion/engine";
+import { parseSampleCsv, sampleFromTable } from "../../lib/motion/csv";
+import type { TransferConfigInput } from "../../lib/motion/config";
+import type { MotionSample } from "../../lib/motion/sample";
+
+setFlagsFromString("--expose-gc");
+const gc = runInNewContext("gc") as () => void;
+
+const expensive: TransferConfigInput = {
+  technique: "motion+stick", frame: "gravity", gravityFilterTimeMs: 400, gainCurve: "power", curveExponent: 1.6,
+  gain: 4, deadBandDegPerS: 0.5, smoothingTimeMs: 30, smoothingSpeedDegPerS: 10, addedLatencyMs: 50,
+  displayMode: "cursor", pixelsPerDegree: 12, horizontalGainMultiplier: 1.2, verticalGainMultiplier: 0.8,
+};
+const median = (xs: number[]): number => {
+  const s = [...xs].sort((a, b) => a - b);
+  const m = s.length >> 1;
+  return s.length % 2 ? (s[m] as number) : ((s[m - 1] as number) + (s[m] as number)) / 2;
+};
+
+// a pool of varied input values (precomputed, so the loop measures the engine, not Math.sin)
+const POOL = 4096;
+const pool = { gx: new Float64Array(POOL), gy: new Float64Array(POOL), gz: new Float64Array(POOL), ax: new Float64Array(POOL), ay: new Float64Array(POOL), az: new Float64Array(POOL), sx: new Float64Array(POOL), sy: new Float64Array(POOL) };
+for (let i = 0; i < POOL; i++) {
+  pool.gx[i] = 40 * Math.sin(i / 37);
+  pool.gy[i] = 60 * Math.cos(i / 53);
+  pool.gz[i] = 5 * Math.sin(i / 11);
+  const p = 0.3 * Math.sin(i / 200);
+  pool.ax[i] = 0.2 * Math.sin(i / 7);
+  pool.ay[i] = 9.8 * Math.cos(p);
+  pool.az[i] = 9.8 * Math.sin(p);
+  pool.sx[i] = Math.sin(i / 90);
+  pool.sy[i] = 0.5 * Math.cos(i / 70);
+}
+
+function engineRun(n: number): { nsPerSample: number; heapBefore: number; heapAfter: number; gcs: number; checksum: number } {
+  const engine = createMotionEngine(expensive);
+  const s: MotionSample = { tMs: 0, gyroX: 0, gyroY: 0, gyroZ: 0, accelX: 0, accelY: 9.8, accelZ: 0, stickX: 0, stickY: 0, buttons: 0, pointerDx: 0, pointerDy: 0, screenAngleDeg: 90 };
+  for (let i = 0; i < 100_000; i++) {
+    s.tMs = i * 4;
+    engine.push(s);
+  }
+  gc();
+  const heapBefore = process.memoryUsage().heapUsed;
+  let gcs = 0;
+  const obs = new PerformanceObserver((list) => (gcs += list.getEntries().length));
+  obs.observe({ entryTypes: ["gc"] });
+  let checksum = 0;
+  const t0 = process.hrtime.bigint();
+  for (let i = 0; i < n; i++) {
+    const k = i & (POOL - 1);
+    s.tMs = 400_000 + i * 4;
+    s.gyroX = pool.gx[k] as number;
+    s.gyroY = pool.gy[k] as number;
+    s.gyroZ = pool.gz[k] as number;
+    s.accelX = pool.ax[k];
+    s.accelY = pool.ay[k];
+    s.accelZ = pool.az[k];
+    s.stickX = pool.sx[k];
+    s.stickY = pool.sy[k];
+    const o = engine.push(s);
+    if (o !== null) checksum += o.dx;
+  }
+  const ns = Number(process.hrtime.bigint() - t0) / n;
+  obs.disconnect();
+  gc();
+  return { nsPerSample: ns, heapBefore, heapAfter: process.memoryUsage().heapUsed, gcs, checksum };
+}
+
+function writeCsv(path: string, rows: number): void {
+  const fd = openSync(path, "w");
+  let chunk = "t_ms,gyro_x,gyro_y,gyro_z,accel_x,accel_y,accel_z,stick_x,stick_y,buttons,screen_angle\n";
+  for (let i = 0; i < rows; i++) {
+    const k = i & (POOL - 1);
+    chunk += `${i * 4},${(pool.gx[k] as number).toFixed(2)},${(pool.gy[k] as number).toFixed(2)},${(pool.gz[k] as number).toFixed(2)},${(pool.ax[k] as number).toFixed(3)},${(pool.ay[k] as number).toFixed(3)},${(pool.az[k] as number).toFixed(3)},${(pool.sx[k] as number).toFixed(3)},${(pool.sy[k] as number).toFixed(3)},0,90\n`;
+    if (chunk.length > 1 << 16) {
+      writeFileSync(fd, chunk);
+      chunk = "";
+    }
+  }
+  writeFileSync(fd, chunk);
+}
+
+const runs = Number(process.env.BENCH_RUNS ?? 5);
+const N = 10_000_000;
+console.log(`motion engine, most expensive configuration, ${N.toLocaleString("en")} samples × ${runs} runs`);
+const results = [];
+for (let r = 0; r < runs; r++) {
+  const res = engineRun(N);
+  results.push(res);
+  console.log(`  run ${r + 1}: ${res.nsPerSample.toFixed(1)} ns/sample, heap ${(res.heapBefore / 1e6).toFixed(2)} → ${(res.heapAfter / 1e6).toFixed(2)} MB, GCs during run: ${res.gcs}`);
+}
+const medNs = median(results.map((r) => r.nsPerSample));
+console.log(`  median ${medNs.toFixed(1)} ns/sample (budget 1000 ns: ratio ${(medNs / 1000).toFixed(3)}); median heap growth ${(median(results.map((r) => r.heapAfter - r.heapBefore)) / 1e3).toFixed(1)} kB; median GCs ${median(results.map((r) => r.gcs))}`);
+
+const dir = mkdtempSync(join(tmpdir(), "bench-motion-"));
+const csv = join(dir, "samples.csv"), cfg = join(dir, "config.json");
+writeCsv(csv, 1_000_000);
+writeFileSync(cfg, JSON.stringify(expensive));
+
+// in-process parts of the replay
+const phases: { read: number[]; parse: number[]; engine: number[] } = { read: [], parse: [], engine: [] };
+for (let r = 0; r < 3; r++) {
+  let t = performance.now();
+  const text = readFileSync(csv, "utf8");
+  phases.read.push(performance.now() - t);
+  t = performance.now();
+  const table = parseSampleCsv(text, csv);
+  phases.parse.push(performance.now() - t);
+  t = performance.now();
+  const e = createMotionEngine(expensive);
+  const s: MotionSample = { tMs: 0, gyroX: 0, gyroY: 0, gyroZ: 0 };
+  for (let i = 0; i < table.length; i++) e.push(sampleFromTable(table, i, s));
+  phases.engine.push(performance.now() - t);
+}
+console.log(`replay parts, 1 M rows (median of 3): read ${median(phases.read).toFixed(0)} ms, parse ${median(phases.parse).toFixed(0)} ms, engine ${median(phases.engine).toFixed(0)} ms`);
+
+const walls: number[] = [];
+const tsx = join(process.cwd(), "node_modules", ".bin", "tsx");
+for (let r = 0; r < runs; r++) {
+  const t = performance.now();
+  const out = spawnSync(tsx, ["--no-warnings", "experiments/cli/replay.ts", "--config", cfg, csv], { stdio: ["ignore", "ignore", "pipe"] });
+  walls.push(performance.now() - t);
+  if (out.status !== 0) throw new Error(`replay failed: ${String(out.stderr)}`);
+}
+const startup: number[] = [];
+for (let r = 0; r < 3; r++) {
+  const t = performance.now();
+  spawnSync(tsx, ["--no-warnings", "-e", "0"], { stdio: "ignore" });
+  startup.push(performance.now() - t);
+}
+const medWall = median(walls);
+console.log(`replay end to end, 1 M rows, fresh process per run: ${walls.map((w) => w.toFixed(0)).join(", ")} ms; median ${medWall.toFixed(0)} ms (budget 2000 ms: ratio ${(medWall / 2000).toFixed(2)}); of which tsx start-up ≈ ${median(startup).toFixed(0)} ms`);
