@@ -1,0 +1,138 @@
+import { describe, expect, it } from "vitest";
+import { studyDesignSchema, conditionsOf, type StudyDesignInput } from "@/lib/study/design";
+import { allOrders, counterbalancingRows, cyclicRows, orderForParticipant, plannedRowsWarning, randomRows, williamsRows } from "@/lib/study/counterbalance";
+
+const isPermutation = (row: number[], n: number) => [...row].sort((a, b) => a - b).every((v, i) => v === i) && row.length === n;
+
+/** Counts of each ordered neighbour pair (a, b), a ≠ b, over all rows. */
+function neighbourPairs(rows: number[][]): Map<string, number> {
+  const m = new Map<string, number>();
+  for (const r of rows) for (let i = 0; i + 1 < r.length; i++) m.set(`${r[i]}>${r[i + 1]}`, (m.get(`${r[i]}>${r[i + 1]}`) ?? 0) + 1);
+  return m;
+}
+
+describe("williamsRows — Williams, E. J. (1949), Aust. J. Sci. Res. A 2:149–168", () => {
+  for (let n = 2; n <= 8; n++) {
+    const rows = williamsRows(n);
+    it(`n = ${n}: ${n % 2 === 0 ? "n" : "2n"} rows, each a permutation`, () => {
+      expect(rows.length).toBe(n % 2 === 0 ? n : 2 * n);
+      for (const r of rows) expect(isPermutation(r, n)).toBe(true);
+    });
+    it(`n = ${n}: each condition equally often in every position (once per n rows)`, () => {
+      const perPosition = rows.length / n;
+      for (let pos = 0; pos < n; pos++) {
+        const counts = new Array<number>(n).fill(0);
+        for (const r of rows) counts[r[pos]!]!++;
+        expect(counts).toEqual(new Array<number>(n).fill(perPosition));
+      }
+    });
+    it(`n = ${n}: every ordered neighbour pair ${n % 2 === 0 ? "exactly once" : "exactly twice"}`, () => {
+      const pairs = neighbourPairs(rows);
+      expect(pairs.size).toBe(n * (n - 1)); // every ordered pair a ≠ b occurs
+      for (const count of pairs.values()) expect(count).toBe(n % 2 === 0 ? 1 : 2);
+    });
+  }
+  it("odd n: the second n rows are the first n reversed (Williams 1949, odd case)", () => {
+    const rows = williamsRows(5);
+    for (let r = 0; r < 5; r++) expect(rows[r + 5]).toEqual([...rows[r]!].reverse());
+  });
+  it("matches the 4-condition square as commonly printed (A B D C / B C A D / C D B A / D A C B; from memory)", () => {
+    expect(williamsRows(4)).toEqual([
+      [0, 1, 3, 2],
+      [1, 2, 0, 3],
+      [2, 3, 1, 0],
+      [3, 0, 2, 1],
+    ]);
+  });
+  it("first row follows 0, 1, n−1, 2, n−2, … (Williams 1949)", () => {
+    expect(williamsRows(6)[0]).toEqual([0, 1, 5, 2, 4, 3]);
+    expect(williamsRows(7)[0]).toEqual([0, 1, 6, 2, 5, 3, 4]);
+  });
+  it("refuses nonsense sizes", () => {
+    expect(() => williamsRows(0)).toThrow("williamsRows requires a whole number of conditions from 1 to 64, got 0");
+    expect(() => williamsRows(2.5)).toThrow(/williamsRows/);
+  });
+});
+
+describe("cyclicRows — Latin square definition (each symbol once per row and column; common practice)", () => {
+  for (let n = 2; n <= 8; n++) {
+    it(`n = ${n}: each condition once per row and once per column`, () => {
+      const rows = cyclicRows(n);
+      expect(rows.length).toBe(n);
+      for (const r of rows) expect(isPermutation(r, n)).toBe(true);
+      for (let c = 0; c < n; c++) expect(isPermutation(rows.map((r) => r[c]!), n)).toBe(true);
+    });
+  }
+  it("cell (r, c) = (r + c) mod n", () => expect(cyclicRows(3)).toEqual([[0, 1, 2], [1, 2, 0], [2, 0, 1]]));
+});
+
+describe("allOrders — complete counterbalancing, n! orders (common practice)", () => {
+  const factorial = (n: number): number => (n <= 1 ? 1 : n * factorial(n - 1));
+  for (let n = 1; n <= 4; n++) {
+    it(`n = ${n}: ${factorial(n)} distinct permutations`, () => {
+      const rows = allOrders(n);
+      expect(rows.length).toBe(factorial(n));
+      expect(new Set(rows.map((r) => r.join(","))).size).toBe(rows.length);
+      for (const r of rows) expect(isPermutation(r, n)).toBe(true);
+    });
+  }
+  it("refuses more than 4 conditions", () => expect(() => allOrders(5)).toThrow("allOrders requires 1 to 4 conditions, got 5"));
+});
+
+describe("randomRows — seeded Fisher–Yates (Durstenfeld 1964)", () => {
+  it("the same seed gives the same rows; another seed other rows", () => {
+    expect(randomRows(6, 42, 20)).toEqual(randomRows(6, 42, 20));
+    expect(randomRows(6, 42, 20)).not.toEqual(randomRows(6, 43, 20));
+  });
+  it("every row is a permutation", () => {
+    for (const r of randomRows(7, 9, 50)) expect(isPermutation(r, 7)).toBe(true);
+  });
+  it("roughly uniform: each condition first about 1/n of the time (6000 rows, n = 3, ±5 %)", () => {
+    const counts = [0, 0, 0];
+    for (const r of randomRows(3, 123, 6000)) counts[r[0]!]!++;
+    for (const c of counts) expect(Math.abs(c / 6000 - 1 / 3)).toBeLessThan(0.05);
+  });
+  it("refuses a bad seed or count", () => {
+    expect(() => randomRows(3, -1, 2)).toThrow(/seed/);
+    expect(() => randomRows(3, 1, 0)).toThrow(/row count/);
+  });
+});
+
+const design2x2: StudyDesignInput = {
+  factors: [
+    { name: "technique", levels: [{ label: "motion", config: { technique: "motion" } }, { label: "stick", config: { technique: "stick" } }] },
+    { name: "gain", levels: [{ label: "gain 4", config: { gain: 4 } }, { label: "gain 8", config: { gain: 8 } }] },
+  ],
+  task: { amplitudes: [300, 500], widths: [40, 80] },
+  counterbalancing: { method: "williams", seed: 1 },
+};
+
+describe("counterbalancingRows and orderForParticipant on a design", () => {
+  const parse = (over: Partial<StudyDesignInput>) => studyDesignSchema.parse({ ...design2x2, ...over });
+  it("williams over the 4 conditions of a 2 × 2 crossing", () => {
+    const d = parse({});
+    expect(conditionsOf(d).length).toBe(4);
+    expect(counterbalancingRows(d)).toEqual(williamsRows(4));
+  });
+  it("a chosen subset of 3 conditions gives 6 Williams rows (odd n)", () => {
+    const d = parse({ conditionSubset: ["motion / gain 4", "motion / gain 8", "stick / gain 4"] });
+    expect(counterbalancingRows(d)).toEqual(williamsRows(3));
+  });
+  it("cyclic, all orders and random follow the method", () => {
+    expect(counterbalancingRows(parse({ counterbalancing: { method: "cyclic", seed: 1 } }))).toEqual(cyclicRows(4));
+    expect(counterbalancingRows(parse({ counterbalancing: { method: "all-orders", seed: 1 } }))).toHaveLength(24);
+    const r = counterbalancingRows(parse({ counterbalancing: { method: "random", seed: 77 }, plannedParticipants: 10 }));
+    expect(r).toEqual(randomRows(4, 77, 10));
+  });
+  it("participant i gets row i mod rows (science: recruit in multiples of the row count)", () => {
+    const d = parse({});
+    expect(orderForParticipant(d, 0)).toEqual({ row: 0, order: [0, 1, 3, 2] });
+    expect(orderForParticipant(d, 5)).toEqual({ row: 1, order: [1, 2, 0, 3] });
+    expect(() => orderForParticipant(d, -1)).toThrow(/participant index/);
+  });
+  it("warns when N is not a multiple of the rows", () => {
+    expect(plannedRowsWarning(12, 4)).toBeNull();
+    expect(plannedRowsWarning(10, 4)).toBe("10 participants is not a multiple of the 4 orders: rows 1–2 get one more participant than rows 3–4. Plan 8 or 12.");
+    expect(plannedRowsWarning(3, 6)).toContain("Plan 6.");
+  });
+});
