@@ -180,8 +180,9 @@ export function createMotionEngine(input: TransferConfigInput | TransferConfig):
         h = adaptiveFrameHorizontal(ry, rz, uy, uz);
         v = rx;
       }
-      // turning left (positive about "up") moves left; raising the top edge moves up
-      const rateX = -h, rateY = c.invertVertical ? -v : v;
+      // Turning left (positive about "up") moves left; tilting the top edge away from the viewer
+      // (negative about x, right-hand rule) moves up, as a camera would (science.md §8 "Signs").
+      const rateX = -h, rateY = c.invertVertical ? v : -v;
       const speed = Math.sqrt(rateX * rateX + rateY * rateY);
       const reduced = speedAfterDeadBand(speed, c.deadBandDegPerS);
       const scale = speed > 0 ? reduced / speed : 0;

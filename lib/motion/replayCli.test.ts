@@ -19,12 +19,12 @@ describe("replay CLI", { timeout: 30_000 }, () => {
   it("prints the accumulated view angles (gain 6: 30 deg/s for 0.1 s is 18° of view; the clutch stops it)", () => {
     const r = run(["--config", file("v.json", '{ "gain": 6 }'), samples]);
     expect(r.status).toBe(0);
-    expect(r.stdout).toBe("t_ms,yaw_deg,pitch_deg\n0,0,0\n100,-18,6\n200,-18,6\n");
+    expect(r.stdout).toBe("t_ms,yaw_deg,pitch_deg\n0,0,0\n100,-18,-6\n200,-18,-6\n");
   });
   it("prints cursor pixels in cursor mode", () => {
     const r = run(["--config", file("c.json", '{ "displayMode": "cursor", "pixelsPerDegree": 10 }'), samples]);
     expect(r.stdout.split("\n")[0]).toBe("t_ms,x_px,y_px");
-    expect(r.stdout.split("\n")[2]).toBe("100,-30,-10");
+    expect(r.stdout.split("\n")[2]).toBe("100,-30,10");
   });
   it("bad sample → exit 2, one line naming file, line and column, nothing on stdout", () => {
     const bad = file("b.csv", "t_ms,gyro_x,gyro_y,gyro_z\n0,0,0,0\n10,1,2,3\n20,0,x,0\n");

@@ -25,11 +25,13 @@ describe("W3C device axes and units, checked with three.js rotations", () => {
     expect(out.y).toBeCloseTo(0, 9);
   });
 
-  it("raising the top edge of an upright device (positive rate about x) moves the view up", () => {
+  it("tilting the top edge of an upright device towards the viewer (positive rate about x) moves the view down; away moves it up", () => {
     const samples = virtualDeviceSamples((t) => upright().multiply(aboutDevice([1, 0, 0], 20 * (t / 1000))), 1000, 100);
     expect(samples[10]!.gyroX).toBeCloseTo(20, 6);
     const out = totalOutput(createMotionEngine({ gain: 1 }).push, samples);
-    expect(out.y).toBeCloseTo(20, 6);
+    // W3C: z points out of the screen towards the viewer, so +x rotation brings the top edge towards
+    // the viewer; science.md §8: "tilting its top away moves it up".
+    expect(out.y).toBeCloseTo(-20, 6);
   });
 
   it("a screen turned 90° counter-clockwise maps screen up to device x and screen right to device −y", () => {
@@ -70,7 +72,7 @@ describe("gravity frame against three.js", () => {
     const pitch = virtualDeviceSamples((t) => aboutWorld([1, 0, 0], 25 * (t / 1000)).multiply(hold.clone()), 1000, 200);
     const out = totalOutput(createMotionEngine({ frame: "gravity", gain: 3 }).push, pitch);
     expect(Math.abs(out.x)).toBeLessThan(0.5);
-    expect(out.y).toBeGreaterThan(50);
+    expect(out.y).toBeLessThan(-50); // this world rotation brings the top edge towards the viewer: down
   });
 
   it("estimates gravity by fusing the gyroscope: it follows a fast turn that a slow accelerometer filter alone would lag", () => {

@@ -20,11 +20,11 @@ describe("CD gain (common practice figures)", () => {
   it("cursor mode multiplies by pixels per degree and keeps page y down", () => {
     const e = createMotionEngine({ gain: 2, displayMode: "cursor", pixelsPerDegree: 15 });
     expect(totalOutput(e.push, turn(10)).x).toBeCloseTo(-300, 6);
-    const up = [{ tMs: 0, gyroX: 0, gyroY: 0, gyroZ: 0 }, { tMs: 100, gyroX: 10, gyroY: 0, gyroZ: 0 }];
+    const up = [{ tMs: 0, gyroX: 0, gyroY: 0, gyroZ: 0 }, { tMs: 100, gyroX: -10, gyroY: 0, gyroZ: 0 }]; // top edge tilted away: up
     expect(totalOutput(createMotionEngine({ displayMode: "cursor", pixelsPerDegree: 15 }).push, up).y).toBeCloseTo(-15, 9);
   });
   it("horizontal and vertical multipliers are separate", () => {
-    const s = [{ tMs: 0, gyroX: 0, gyroY: 0, gyroZ: 0 }, { tMs: 100, gyroX: 10, gyroY: -10, gyroZ: 0 }];
+    const s = [{ tMs: 0, gyroX: 0, gyroY: 0, gyroZ: 0 }, { tMs: 100, gyroX: -10, gyroY: -10, gyroZ: 0 }];
     const out = totalOutput(createMotionEngine({ gain: 2, horizontalGainMultiplier: 1.5, verticalGainMultiplier: 0.5 }).push, s);
     expect(out.x).toBeCloseTo(3, 9); // 2 × 1.5 × 10 deg/s × 0.1 s, a right turn
     expect(out.y).toBeCloseTo(1, 9);

@@ -51,7 +51,7 @@ export function deviceRatesForViewRate(config: TransferConfig, viewRateX: number
   if (q === 0) return;
   const s = deviceSpeedForOutputSpeed(config, q);
   const rateX = (qx / q) * s, rateY = (qy / q) * s;
-  const h = -rateX, v = config.invertVertical ? -rateY : rateY;
+  const h = -rateX, v = config.invertVertical ? rateY : -rateY;
   if (config.frame === "device") {
     out.x = v;
     const axis = config.deviceHorizontalAxis === "both" ? (Math.abs(up.y) >= Math.abs(up.z) ? "screen-up" : "screen-normal") : config.deviceHorizontalAxis;

@@ -70,7 +70,7 @@ describe("snap-turn stick", () => {
   it("does nothing below the threshold, and the vertical still comes from motion", () => {
     const e = createMotionEngine(cfg);
     e.push(at(0, 0, 0));
-    const o = e.push({ ...at(100, 0.5, 0), gyroX: 10 })!;
+    const o = e.push({ ...at(100, 0.5, 0), gyroX: -10 })!; // top edge tilted away: up
     expect(o.dx).toBeCloseTo(0, 12);
     expect(o.dy).toBeCloseTo(1, 9);
   });
