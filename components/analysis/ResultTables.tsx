@@ -1,0 +1,97 @@
+import type { AnalysisResult } from "@/lib/analysis";
+import { fmt, fmtP } from "./format";
+
+/** The analysis as tables: condition summaries, regressions, ANOVA, post hoc, cells and sequences. */
+export function ResultTables({ result }: { result: AnalysisResult }) {
+  const u = result.unit;
+  return (
+    <div className="space-y-6">
+      <p className="text-sm text-slate-700">
+        {result.movements} movements; {result.excluded} removed by the {result.exclude === "misfire" ? "misfire rule (distance along the axis < A/2, or |P − T| > 2W)" : "no exclusion rule"};
+        start point: {result.start === "actual" ? "the previous selection point" : "the previous target's centre"}; effective width {result.widthMethod === "effective" ? "We = 4.133 · SDx" : "from the error rate (legacy data, flagged)"}.
+        {result.missing.participantsExcluded > 0 && ` ${result.missing.participantsExcluded} participant(s) lacking a condition were left out of the ANOVA.`}
+      </p>
+      {result.notes.length > 0 && <ul className="notice list-inside list-disc">{result.notes.map((n) => <li key={n}>{n}</li>)}</ul>}
+
+      <Section title="Conditions (mean of participants' means)">
+        <table>
+          <thead><tr><th>Condition</th><th>n</th><th>TP (bits/s)</th><th>95 % CI</th><th>MT (ms)</th><th>Error rate</th></tr></thead>
+          <tbody>
+            {result.conditions.map((c) => (
+              <tr key={c.condition}>
+                <td>{c.condition}</td><td>{c.n}</td><td>{fmt(c.tp.mean)} ± {fmt(c.tp.sd)}</td><td>[{fmt(c.tp.ci95[0])}, {fmt(c.tp.ci95[1])}]</td>
+                <td>{fmt(c.mt.mean, 0)}</td><td>{fmt(c.errorRate.mean * 100, 1)} %</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </Section>
+
+      <Section title="Fitts regression MT = a + b · IDe (per condition, over A×W means)">
+        <table>
+          <thead><tr><th>Condition</th><th>a (ms)</th><th>b (ms/bit)</th><th>r²</th></tr></thead>
+          <tbody>{result.regression.map((r) => <tr key={r.condition}><td>{r.condition}</td><td>{fmt(r.intercept, 0)}</td><td>{fmt(r.slope, 0)}</td><td>{fmt(r.r2, 3)}</td></tr>)}</tbody>
+        </table>
+      </Section>
+
+      <Section title="Repeated-measures ANOVA on throughput">
+        <table>
+          <thead><tr><th>Effect</th><th>df</th><th>F</th><th>p</th><th>ε (GG)</th><th>p (GG)</th><th>partial η²</th></tr></thead>
+          <tbody>
+            {result.anova.map((a) => (
+              <tr key={a.effect}><td>{a.effect}</td><td>{fmt(a.df1, 0)}, {fmt(a.df2, 0)}</td><td>{fmt(a.F)}</td><td>{fmtP(a.p)}</td><td>{fmt(a.epsilonGG, 3)}</td><td>{fmtP(a.pGG)}</td><td>{fmt(a.partialEta2, 3)}</td></tr>
+            ))}
+          </tbody>
+        </table>
+      </Section>
+
+      <Section title="Post hoc paired t-tests (Holm-corrected)">
+        <table>
+          <thead><tr><th>A</th><th>B</th><th>mean diff (bits/s)</th><th>t</th><th>df</th><th>p</th><th>p (Holm)</th><th>d<sub>z</sub></th></tr></thead>
+          <tbody>
+            {result.posthoc.map((p) => (
+              <tr key={`${p.a}|${p.b}`}><td>{p.a}</td><td>{p.b}</td><td>{fmt(p.meanDiff)}</td><td>{fmt(p.t)}</td><td>{p.df}</td><td>{fmtP(p.p)}</td><td>{fmtP(p.pHolm)}</td><td>{fmt(p.dz)}</td></tr>
+            ))}
+          </tbody>
+        </table>
+      </Section>
+
+      <Section title="Participant × condition cells">
+        <table>
+          <thead><tr><th>Participant</th><th>Condition</th><th>TP (bits/s)</th><th>MT (ms)</th><th>Error rate</th><th>We ({u})</th><th>IDe (bits)</th></tr></thead>
+          <tbody>
+            {result.cells.map((c) => (
+              <tr key={`${c.participant}|${c.condition}`}><td>{c.participant}</td><td>{c.condition}</td><td>{fmt(c.tp)}</td><td>{fmt(c.mt, 0)}</td><td>{fmt(c.errorRate * 100, 1)} %</td><td>{fmt(c.we)}</td><td>{fmt(c.ide)}</td></tr>
+            ))}
+          </tbody>
+        </table>
+      </Section>
+
+      <details className="card">
+        <summary className="cursor-pointer font-semibold">Sequences ({result.sequences.length})</summary>
+        <div className="mt-2 overflow-x-auto">
+          <table>
+            <thead><tr><th>Participant</th><th>Condition</th><th>Block</th><th>Seq.</th><th>A</th><th>W</th><th>n</th><th>Ae</th><th>We</th><th>IDe</th><th>MT (ms)</th><th>TP</th><th>Errors</th></tr></thead>
+            <tbody>
+              {result.sequences.map((s) => (
+                <tr key={`${s.participant}|${s.condition}|${s.block}|${s.sequence}`}>
+                  <td>{s.participant}</td><td>{s.condition}</td><td>{s.block}</td><td>{s.sequence}</td><td>{s.amplitude}</td><td>{s.width}</td><td>{s.n}</td>
+                  <td>{fmt(s.ae)}</td><td>{fmt(s.we)}</td><td>{fmt(s.ide)}</td><td>{fmt(s.mt, 0)}</td><td>{fmt(s.tp)}</td><td>{fmt(s.errorRate * 100, 1)} %</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      </details>
+    </div>
+  );
+}
+
+function Section({ title, children }: { title: string; children: React.ReactNode }) {
+  return (
+    <section className="card overflow-x-auto">
+      <h2 className="mb-2">{title}</h2>
+      {children}
+    </section>
+  );
+}
