@@ -1,9 +1,8 @@
 // analyze: reads a trial table (CSV) and prints the analysis; see docs/analysis.md.
-import { createReadStream } from "node:fs";
 import { basename } from "node:path";
 import { parseArgs } from "node:util";
 import { z } from "zod";
-import { analyzeTrialStream } from "../../lib/analysis";
+import { analyzeTrialFile } from "../../lib/analysis";
 import { TrialTableError } from "../../lib/trials";
 import { formatReport } from "./formatReport";
 
@@ -42,7 +41,7 @@ async function main(argv: string[]): Promise<number> {
     return 2;
   }
   try {
-    const result = await analyzeTrialStream(createReadStream(args.file), {
+    const result = await analyzeTrialFile(args.file, {
       file: args.file,
       start: args.start,
       exclude: args.exclude,

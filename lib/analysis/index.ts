@@ -14,3 +14,4 @@ export { cellMeans, aggregate } from "./aggregate";
 export { buildResult } from "./buildResult";
 export { analyzeTrials, analyzeLegacyTrials } from "./analyzeTrials";
 export { analyzeTrialStream, type StreamAnalysisOptions } from "./analyzeTrialStream";
+export { analyzeTrialFile, type FileAnalysisOptions } from "./parallel/analyzeTrialFile";
