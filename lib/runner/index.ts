@@ -1,0 +1,20 @@
+// Participant runner: pure logic shared by the browser session, the server and the tests.
+export { planSession, type PlannedSequence } from "./plan";
+export { uploadKey } from "./uploadKey";
+export { STAGES, initialProgress, currentStep, advanceProgress, progressFraction, type Stage, type Progress, type RunnerStep } from "./progress";
+export { sequenceLayout, isInsideTarget, type SequenceLayout } from "./geometry";
+export {
+  ID1_CARD_WIDTH_MM, ID1_CARD_HEIGHT_MM, BLIND_SPOT_ANGLE_DEG, pixelsPerMmFromCard, viewingDistanceFromBlindSpot,
+  visualDegreesToPixels, pixelsPerTaskUnit, trialUnit, type DisplayCalibration,
+} from "./calibration";
+export { projectDirection } from "./perspective";
+export { createSequenceRecorder, type SequenceRecorder, type RecordedMovement } from "./sequenceRecorder";
+export { consentBlocks, requiredStatementIds, consentCopyText, DEFAULT_STATEMENT, type ConsentBlock } from "./consent";
+export { sequenceBatchSchema, movementSchema, sequenceQualitySchema, type SequenceBatch, type SequenceQuality, type Movement } from "./batch";
+export { batchProblems } from "./plausibility";
+export { deviceVerdict, type DeviceInputs, type DeviceVerdict } from "./deviceCheck";
+export { qualityFlags, QUALITY_LIMITS, type SessionFigures } from "./qualityFlags";
+export { retryDelayMs, uploadOutcome, type UploadOutcome } from "./upload";
+export { deviceSummary, type DeviceSummary } from "./deviceSummary";
+export { selectButtonFor } from "./selectButton";
+export * from "./requests";

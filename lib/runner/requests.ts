@@ -1,0 +1,80 @@
+import { z } from "zod";
+import { STAGES } from "./progress";
+
+/** Bodies of the session API (app/api/session/[token]/…), shared by the runner and the server. */
+
+export const consentRequestSchema = z.strictObject({
+  consentVersionId: z.number().int().positive(),
+  /** SHA-256 of the text the participant saw; must equal the approved version's. */
+  versionHash: z.string().regex(/^[0-9a-f]{64}$/),
+  agreed: z.array(z.string().regex(/^s\d{1,3}$/)).max(50),
+  typedName: z.string().trim().max(120).optional(),
+  /** Only to send a copy; never stored. */
+  email: z.email().max(254).optional(),
+  screenShortSidePx: z.number().finite().positive().max(100_000).nullable(),
+});
+
+export const deviceRequestSchema = z.strictObject({
+  inputs: z.strictObject({ motion: z.boolean(), gamepad: z.boolean(), touch: z.boolean(), finePointer: z.boolean() }),
+  sampleRateHz: z.number().finite().min(0).max(5000).nullable(),
+  jitterSdMs: z.number().finite().min(0).max(10_000).nullable(),
+  sourceKind: z.enum(["device-motion", "generic-sensor", "gamepad", "pointer-lock", "pointer-drag", "scripted", "hid", "none"]),
+  verdict: z.enum(["ok", "refused"]),
+});
+
+export const calibrationRequestSchema = z.discriminatedUnion("kind", [
+  z.strictObject({
+    kind: z.literal("bias"),
+    biasXDegPerS: z.number().finite().min(-50).max(50),
+    biasYDegPerS: z.number().finite().min(-50).max(50),
+    biasZDegPerS: z.number().finite().min(-50).max(50),
+    noiseSdDegPerS: z.number().finite().min(0).max(100),
+    samples: z.number().int().min(0),
+  }),
+  z.strictObject({ kind: z.literal("card"), cardWidthPx: z.number().finite().positive().max(10_000), pixelsPerMm: z.number().finite().positive().max(100) }),
+  z.strictObject({
+    kind: z.literal("blind_spot"),
+    distancesPx: z.array(z.number().finite().positive().max(20_000)).min(1).max(10),
+    viewingDistanceMm: z.number().finite().positive().max(5000),
+  }),
+]);
+
+export const progressSchema = z.strictObject({
+  stage: z.enum(STAGES),
+  done: z.number().int().min(0).max(10_000),
+  answered: z.array(z.string().max(200)).max(500),
+  breaks: z.array(z.number().int().min(0)).max(10_000),
+});
+
+export const questionnaireRequestSchema = z.strictObject({
+  /** Condition label; "" for the final questionnaire. */
+  condition: z.string().max(200),
+  answers: z
+    .array(z.strictObject({ itemId: z.string().regex(/^[a-z][a-z0-9_]{0,31}$/), valueInt: z.number().int().min(0).max(100).nullable(), valueText: z.string().max(2000).nullable() }))
+    .min(1)
+    .max(50),
+});
+
+export const withdrawRequestSchema = z.strictObject({ reason: z.string().trim().max(500).optional() });
+
+export type ConsentRequest = z.infer<typeof consentRequestSchema>;
+export type DeviceRequest = z.infer<typeof deviceRequestSchema>;
+export type CalibrationRequest = z.infer<typeof calibrationRequestSchema>;
+export type QuestionnaireRequest = z.infer<typeof questionnaireRequestSchema>;
+
+/** What GET /api/session/[token] answers: everything the runner needs, nothing else. */
+export interface SessionState {
+  participantId: number;
+  status: "invited" | "consented" | "in_progress" | "completed" | "withdrawn";
+  study: { title: string; summary: string; compensation: string };
+  design: unknown;
+  consent: { versionId: number; version: number; hash: string; body: string } | null;
+  /** Condition indices in this participant's order (after consent). */
+  order: number[] | null;
+  planSeed: number | null;
+  progress: unknown;
+  calibration: { pixelsPerMm: number | null; viewingDistanceMm: number | null; bias: { x: number; y: number; z: number } | null };
+  /** Upload keys the server holds. */
+  uploaded: string[];
+  completionCode: string | null;
+}
