@@ -1,4 +1,8 @@
+import { readFileSync } from "node:fs";
 import type { Clients, Entry } from "./types";
+
+const goodTable = () => ({ file: { name: "good.csv", mimeType: "text/csv", buffer: readFileSync("tests/fixtures/analysis/good.csv") } });
+let importId = 0;
 
 const unique = () => `${Date.now()}${Math.floor(Math.random() * 1e6)}`;
 let priyaId = 0;
@@ -9,6 +13,8 @@ export async function setup(clients: Clients): Promise<void> {
   priyaId = users.users.find((u) => u.email.startsWith("priya@"))!.id;
   const studies = (await (await clients.get("researcher")!.get("/api/studies")).json()) as { studies: { id: number }[] };
   demoStudyId = studies.studies.at(-1)!.id;
+  const upload = await clients.get("researcher")!.post("/api/analyses", { multipart: goodTable() });
+  importId = ((await upload.json()) as { id: number }).id;
 }
 
 export const ENTRIES: Record<string, Entry> = {
@@ -33,5 +39,12 @@ export const ENTRIES: Record<string, Entry> = {
   },
   "app/api/admin/mail/route.ts": { calls: [{ method: "GET", path: "/api/admin/mail", allowed: ["admin"] }] },
   "app/api/review/queue/route.ts": { calls: [{ method: "GET", path: "/api/review/queue", allowed: ["reviewer"] }] },
+  "app/api/analyses/route.ts": {
+    calls: [
+      { method: "GET", path: "/api/analyses", allowed: ["researcher"] },
+      { method: "POST", path: "/api/analyses", multipart: goodTable, allowed: ["researcher"] },
+    ],
+  },
+  "app/api/analyses/[id]/route.ts": { calls: [{ method: "GET", path: () => `/api/analyses/${importId}`, allowed: ["researcher"] }] },
   "app/api/audit/verify/route.ts": { calls: [{ method: "GET", path: "/api/audit/verify", allowed: ["reviewer"] }] },
 };
