@@ -68,7 +68,7 @@ export function consentCopyText(p: { studyTitle: string; version: number; hash: 
       "----- The consent text -----",
       p.body,
       "",
-      "We do not keep this e-mail address; it was used only to send you this copy.",
+      "This address is not stored with your study data; it was used only to send you this copy.",
     ].join("\n"),
   };
 }

@@ -58,3 +58,14 @@ export function planSession(design: StudyDesign, order: readonly number[], seed:
   }
   return plan;
 }
+
+/**
+ * The seed of a participant's A×W order (planSeedFor): the study's recorded counterbalancing
+ * seed combined with the participant's id, so the server and the browser build the same plan.
+ * Source: common practice (randomise from a recorded seed). Cost: O(1).
+ * @throws never.
+ * @example planSeedFor(1, 12) // 7931
+ */
+export function planSeedFor(studySeed: number, participantId: number): number {
+  return (Math.imul(studySeed, 7919) + participantId) >>> 0;
+}

@@ -1,0 +1,23 @@
+import { NextResponse } from "next/server";
+import { z } from "zod";
+import { parseParams, readJson } from "@/lib/api/body";
+import { route } from "@/lib/api/respond";
+import { db } from "@/lib/db";
+import { requireSession } from "@/lib/data/participants";
+import { ingestSequenceBatch } from "@/lib/data/recording";
+import { sequenceBatchSchema } from "@/lib/runner";
+
+export const dynamic = "force-dynamic";
+const params = z.object({ token: z.string() });
+
+/**
+ * One sequence upload (movements + compressed stream). Idempotent by the batch key: a repeat
+ * answers 200 {duplicate: true}. 422 malformed or implausible, 410 withdrawn. Token-authenticated.
+ */
+export const POST = route(async (request: Request, context: { params: Promise<{ token: string }> }) => {
+  const { token } = parseParams(params, await context.params);
+  const ctx = await requireSession(db, token);
+  const batch = await readJson(request, sequenceBatchSchema);
+  const result = await ingestSequenceBatch(db, ctx, batch);
+  return NextResponse.json(result, { status: result.duplicate ? 200 : 201 });
+});
