@@ -26,6 +26,7 @@ export default defineConfig({
       NODE_ENV: "production",
       NEXTAUTH_URL: baseURL,
       NEXTAUTH_SECRET: process.env.NEXTAUTH_SECRET ?? "test-secret-not-for-production-0000",
+      PARTICIPANT_DATA_KEY: process.env.PARTICIPANT_DATA_KEY ?? "test-data-key-not-for-production-0000",
       DB_NAME: process.env.DB_NAME ?? "yawpoint_test",
       SMTP_PORT: process.env.SMTP_PORT ?? "2526",
       MAIL_FAKE_HTTP_PORT: process.env.MAIL_FAKE_HTTP_PORT ?? "2581",

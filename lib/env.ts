@@ -27,7 +27,18 @@ const schemaFor = (isDev: boolean) => z.object({
   MAIL_FROM: z.string().default("Yawpoint <no-reply@yawpoint.invalid>"),
   MAIL_FAKE_HTTP_PORT: z.coerce.number().int().positive().default(2580),
   MAIL_FAKE: z.enum(["true", "false"]).default("true").transform((v) => v === "true"),
+  /** Key material for participant identities at rest (AES-256-GCM; the key is SHA-256 of this string). */
+  PARTICIPANT_DATA_KEY: isDev
+    ? z.string().min(16).default("development-only-participant-data-key")
+    : z.string({ error: "PARTICIPANT_DATA_KEY is required outside development: set it to a long random string (npm start generates one in .data/data-key)" }).min(16, "PARTICIPANT_DATA_KEY must be at least 16 characters"),
   STORAGE_DIR: z.string().default("./storage"),
+  /** When set, protocol documents go to this S3-compatible bucket instead of STORAGE_DIR. */
+  S3_BUCKET: z.string().optional(),
+  S3_ENDPOINT: z.url().optional(),
+  S3_REGION: z.string().default("us-east-1"),
+  S3_ACCESS_KEY_ID: z.string().optional(),
+  S3_SECRET_ACCESS_KEY: z.string().optional(),
+  S3_FORCE_PATH_STYLE: z.enum(["true", "false"]).default("true").transform((v) => v === "true"),
   EXPORTS_DIR: z.string().default("./exports"),
 });
 

@@ -28,4 +28,9 @@ ensure_secret() {
     NEXTAUTH_SECRET="$(cat .data/secret)"
     export NEXTAUTH_SECRET
   fi
+  if [ -z "${PARTICIPANT_DATA_KEY:-}" ]; then
+    [ -s .data/data-key ] || node -e 'process.stdout.write(require("crypto").randomBytes(32).toString("base64url"))' > .data/data-key
+    PARTICIPANT_DATA_KEY="$(cat .data/data-key)"
+    export PARTICIPANT_DATA_KEY
+  fi
 }

@@ -1,0 +1,36 @@
+import type { Knex } from "knex";
+import { assertCanEditStudy, assertOwnsStudy, type SessionUser } from "@/lib/auth/guards";
+import { fetchStudy, addTeamMember, type Study, type TeamRole } from "@/lib/data/studies";
+import { findUserRowByEmail } from "@/lib/data/users";
+import { conflict, notFound, unprocessable } from "@/lib/errors";
+import { teamMemberSchema, updateStudySchema } from "../schemas";
+import { auditAs } from "./audit";
+
+/** Edits title, summary and protocol number (editor or owner). */
+export async function updateStudyMeta(db: Knex, user: SessionUser | null, studyId: number, input: unknown): Promise<Study> {
+  await assertCanEditStudy(db, user, studyId);
+  const v = updateStudySchema.parse(input);
+  await db("studies").where({ id: studyId }).update({ title: v.title, summary: v.summary, protocol_number: v.protocolNumber, updated_at: db.fn.now(3) });
+  await auditAs(db, user!, "study.update", studyId, { title: v.title, protocolNumber: v.protocolNumber });
+  return (await fetchStudy(db, studyId))!;
+}
+
+export type TeamMember = { userId: number; name: string; email: string; role: TeamRole };
+
+export async function listTeam(db: Knex, studyId: number): Promise<TeamMember[]> {
+  const rows = await db("study_members as m").join("users as u", "u.id", "m.user_id").where("m.study_id", studyId).orderBy("m.added_at").select<{ user_id: number; name: string; email: string; role: TeamRole }[]>("m.user_id", "u.name", "u.email", "m.role");
+  return rows.map((r) => ({ userId: r.user_id, name: r.name, email: r.email, role: r.role }));
+}
+
+/** Adds a researcher to the team as editor or viewer, or changes their role (owner only). */
+export async function setTeamMember(db: Knex, user: SessionUser | null, studyId: number, input: unknown): Promise<TeamMember[]> {
+  const { study } = await assertOwnsStudy(db, user, studyId);
+  const v = teamMemberSchema.parse(input);
+  const person = await findUserRowByEmail(db, v.email);
+  if (!person || !person.active) throw notFound("No active account has that e-mail address.");
+  if (person.role !== "researcher") throw unprocessable("Only researchers can join a study's team; reviewers stay independent of the studies they review.", [{ path: "email", message: "not a researcher" }]);
+  if (person.id === study.ownerId) throw conflict("The owner is already on the team.");
+  await addTeamMember(db, studyId, person.id, v.role);
+  await auditAs(db, user!, "team.set", studyId, { userId: person.id, role: v.role });
+  return listTeam(db, studyId);
+}

@@ -1,0 +1,2 @@
+export { designSummary, PLANNING, type DesignSummary } from "./designSummary";
+export { orderPreview, type OrderPreview } from "./orderPreview";
