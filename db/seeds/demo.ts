@@ -4,6 +4,7 @@ import { appendAudit } from "../../lib/data/audit";
 import { addTeamMember, insertStudy } from "../../lib/data/studies";
 import { findUserRowByEmail, insertUser } from "../../lib/data/users";
 import { DEMO_PEOPLE, DEMO_STUDY } from "./demo-scenario";
+import { seedFinishedStudy } from "./demo-finished-study";
 
 /** Seeds the demo lab; idempotent (adds only what is missing), so every `npm start` may run it. */
 export async function seedDemo(db: Knex): Promise<{ created: string[] }> {
@@ -31,5 +32,6 @@ export async function seedDemo(db: Knex): Promise<{ created: string[] }> {
     await appendAudit(db, { actorUserId: null, actorLabel: "system", action: "study.create", studyId, details: { title: DEMO_STUDY.title, seeded: true } });
     created.push(`study "${DEMO_STUDY.title}"`);
   }
+  created.push(...(await seedFinishedStudy(db, ids)));
   return { created };
 }

@@ -1,0 +1,51 @@
+import type { StudyDesign } from "../study/design";
+import type { TrialRecord } from "../results/trialRecord";
+
+/** A participant as the archive sees them (withdrawn participants are never given). */
+export interface ExportParticipant {
+  id: number;
+  status: string;
+  cbRow: number | null;
+  conditionOrder: string[];
+  betweenLevels: Record<string, string>;
+  startedAt: Date | null;
+  completedAt: Date | null;
+  /** Final-questionnaire answers by item id (raw; the writer coarsens them). */
+  final: Record<string, string | number | null>;
+}
+
+export interface ExportAnswer {
+  participantId: number;
+  condition: string;
+  itemId: string;
+  valueInt: number | null;
+  valueText: string | null;
+  answeredAt: Date;
+}
+
+/** One recorded sequence's raw stream; `read` loads only this one (gzip replay CSV). */
+export interface ExportStream {
+  participantId: number;
+  condition: string;
+  conditionIndex: number;
+  block: number;
+  sequence: number;
+  practice: boolean;
+  read(): Promise<Buffer | null>;
+}
+
+/**
+ * Everything an archive is written from. The iterables are pulled as the archive is written, so
+ * a source backed by the database (lib/data/exports.ts) or by files (the benchmark) never holds the
+ * whole study in memory.
+ */
+export interface ArchiveSource {
+  study: { id: number; title: string; design: StudyDesign; createdAt: Date };
+  consentVersions: { version: number; sha256: string | null; status: string; bodyMd: string }[];
+  participants: ExportParticipant[];
+  counts: { trials: number; streams: number };
+  /** Non-practice movements of the given participants, grouped by sequence. */
+  trials(): AsyncIterable<TrialRecord>;
+  answers(): AsyncIterable<ExportAnswer>;
+  streams(): AsyncIterable<ExportStream>;
+}

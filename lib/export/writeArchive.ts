@@ -1,0 +1,280 @@
+import { createHash } from "node:crypto";
+import { createWriteStream } from "node:fs";
+import { rename, unlink } from "node:fs/promises";
+import { Readable, Transform, type TransformCallback } from "node:stream";
+import { pipeline } from "node:stream/promises";
+import { ZipArchive, type Archiver } from "archiver";
+import { analysisOptionsSchema } from "../analysis/options";
+import { buildResult } from "../analysis/buildResult";
+import { TrialAccumulator } from "../analysis/trialAccumulator";
+import type { AnalysisResult } from "../analysis/result";
+import { analysisUnitOf } from "../results/analysisUnit";
+import { trialRowFromRecord } from "../results/trialRecord";
+import { conditionsOf } from "../study/design";
+import { formatTrialRow } from "../trials/toTrialCsv";
+import { buildCodebook } from "./codebook";
+import { csvLine } from "./csvLine";
+import { buildDataPackage } from "./dataPackage";
+import { kAnonymity, type KAnonymityResult } from "./kAnonymity";
+import { buildMethods } from "./methods";
+import type { ExportOptions } from "./options";
+import { participantRows, QUASI_IDENTIFIERS } from "./participantRows";
+import { cellRows, conditionRows, sequenceRows } from "./resultRows";
+import type { ArchiveSource } from "./source";
+import {
+  cellsTableSpec, conditionsTableSpec, participantsTableSpec, questionnairesTableSpec, sequencesTableSpec, trialsTableSpec, type TableSpec,
+} from "./tableSpecs";
+
+/** k below this draws a warning (common practice for open data; Sweeney 2002 leaves k to the publisher). */
+export const K_ANONYMITY_THRESHOLD = 5;
+
+/** Items of the final questionnaire that leave in participants.csv in coarse categories. */
+const CODED_FINAL_ITEMS = new Set(["ageBand", "age_band", "handedness", "experience"]);
+
+export interface ArchiveSummary {
+  sha256: string;
+  sizeBytes: number;
+  files: string[];
+  kAnonymity: KAnonymityResult;
+  warnings: string[];
+  movements: number;
+  streams: number;
+  result: AnalysisResult;
+}
+
+export type ProgressListener = (fraction: number, stage: string) => void;
+
+/** Counts and hashes the bytes on their way to the file. */
+class HashingCounter extends Transform {
+  readonly hash = createHash("sha256");
+  bytes = 0;
+  override _transform(chunk: Buffer, _enc: BufferEncoding, done: TransformCallback): void {
+    this.hash.update(chunk);
+    this.bytes += chunk.length;
+    done(null, chunk);
+  }
+}
+
+/** Appends one entry and resolves when archiver has written it (so entries are produced one at a time). */
+function appendEntry(archive: Archiver, source: Readable | Buffer | string, name: string, store = false): Promise<void> {
+  return new Promise((resolve, reject) => {
+    const onEntry = (): void => {
+      archive.off("error", onError);
+      resolve();
+    };
+    const onError = (e: Error): void => {
+      archive.off("entry", onEntry);
+      reject(e);
+    };
+    archive.once("entry", onEntry);
+    archive.once("error", onError);
+    archive.append(source, { name, store });
+  });
+}
+
+/** Lines from rows, in chunks of ~64 KiB, header first. */
+async function* csvChunks(header: readonly string[], rows: AsyncIterable<Record<string, unknown>> | Iterable<Record<string, unknown>>): AsyncGenerator<string> {
+  let chunk = csvLine(header) + "\n";
+  for await (const row of rows) {
+    chunk += csvLine(header.map((h) => row[h] as string | number | null | undefined)) + "\n";
+    if (chunk.length > 65_536) {
+      yield chunk;
+      chunk = "";
+    }
+  }
+  if (chunk) yield chunk;
+}
+
+const safe = (s: string): string => s.replace(/[^A-Za-z0-9._-]+/g, "_");
+
+/**
+ * Writes the anonymised archive of a study (writeArchive) as a ZIP file at `outPath`.
+ *
+ * Purpose: open data without direct identifiers: pseudonyms instead of codes; no e-mail, name,
+ * token, IP address or user agent (the source does not even offer them); times relative to the
+ * session start unless dates are asked for; free text only when chosen; a k-anonymity check over
+ * participants.csv. Streamed: every entry is produced while archiver writes it, one at a time,
+ * and the ZIP goes straight to disk through a SHA-256 and byte counter (archiver 8; ZIP as in
+ * PKWARE's APPNOTE). The file appears at `outPath` only when complete.
+ * Cost: O(movements + stream bytes) time; memory O(sequences) for the analysis plus one stream.
+ * @throws Error from the source, TrialTableError for inconsistent trials, archiver errors; the
+ *   partial file is removed.
+ * @example await writeArchive(source, options, pseudonyms, "/tmp/a.zip") // { sha256: "…", sizeBytes: 48213, … }
+ */
+export async function writeArchive(
+  source: ArchiveSource,
+  options: ExportOptions,
+  pseudonyms: ReadonlyMap<number, string>,
+  outPath: string,
+  onProgress: ProgressListener = () => {},
+): Promise<ArchiveSummary> {
+  const { design } = source.study;
+  const unit = analysisUnitOf(design.task.unit);
+  const conditions = conditionsOf(design);
+  const factorNames = design.factors.map((f) => f.name);
+  const betweenNames = design.betweenFactors.map((f) => f.name);
+  const levelsOf = new Map(conditions.map((c) => [c.label, c.factorLevels]));
+  const analysisOptions = analysisOptionsSchema.parse({ start: "actual", exclude: "misfire", unit, file: "trials.csv" });
+  const pseudonymOf = (id: number): string => {
+    const p = pseudonyms.get(id);
+    if (p === undefined) throw new Error(`writeArchive requires a pseudonym for participant ${id}`);
+    return p;
+  };
+
+  const files: string[] = [];
+  const warnings: string[] = [];
+  const tmpPath = `${outPath}.part`;
+  const archive = new ZipArchive({ zlib: { level: 6 } });
+  const counter = new HashingCounter();
+  const written = pipeline(archive, counter, createWriteStream(tmpPath));
+  written.catch(() => {}); // awaited below; avoid an unhandled rejection while entries are appended
+  archive.on("warning", (w) => warnings.push(`archiver: ${w.message}`));
+
+  const streamWeight = options.includeStreams && source.counts.streams > 0 ? 0.6 : 0;
+  const trialWeight = 0.95 - streamWeight;
+  const add = async (name: string, body: Readable | Buffer | string, store = false): Promise<void> => {
+    await appendEntry(archive, body, name, store);
+    files.push(name);
+  };
+
+  try {
+    // trials.csv, feeding the analysis as it goes
+    onProgress(0, "movements");
+    const trialsSpec = trialsTableSpec(unit, factorNames);
+    const acc = new TrialAccumulator(analysisOptions);
+    let movements = 0;
+    async function* trialChunks(): AsyncGenerator<string> {
+      let chunk = csvLine(trialsSpec.fields.map((f) => f.name)) + "\n";
+      let line = 1;
+      for await (const rec of source.trials()) {
+        const factors = levelsOf.get(rec.condition);
+        if (factors === undefined) throw new Error(`writeArchive: movement of unknown condition "${rec.condition}"`);
+        const row = trialRowFromRecord(rec, pseudonymOf(rec.participant_id), factors);
+        line++;
+        acc.add({ ...row, line });
+        chunk += formatTrialRow(row, factorNames) + "\n";
+        movements++;
+        if (chunk.length > 65_536) {
+          yield chunk;
+          chunk = "";
+          onProgress(trialWeight * Math.min(1, movements / Math.max(1, source.counts.trials)), "movements");
+        }
+      }
+      if (chunk) yield chunk;
+    }
+    await add("trials.csv", Readable.from(trialChunks()));
+    const result = buildResult(acc.states.values(), analysisOptions, "effective");
+
+    onProgress(trialWeight, "summaries");
+    const seqSpec = sequencesTableSpec(unit);
+    await add("sequences.csv", Readable.from(csvChunks(seqSpec.fields.map((f) => f.name), sequenceRows(result))));
+    const cellSpec = cellsTableSpec(unit, factorNames);
+    await add("cells.csv", Readable.from(csvChunks(cellSpec.fields.map((f) => f.name), cellRows(result, factorNames))));
+    const condSpec = conditionsTableSpec(factorNames);
+    await add("conditions.csv", Readable.from(csvChunks(condSpec.fields.map((f) => f.name), conditionRows(result, factorNames))));
+
+    // participants.csv and the k-anonymity check
+    const partSpec = participantsTableSpec(betweenNames, options.includeDates);
+    const partRows = participantRows(source.participants, pseudonyms, betweenNames, options.includeDates);
+    const k = kAnonymity(partRows, [...QUASI_IDENTIFIERS, ...betweenNames.map((b) => `between_${b}`)], K_ANONYMITY_THRESHOLD);
+    if (partRows.length > 0 && k.k < K_ANONYMITY_THRESHOLD) {
+      warnings.push(
+        `participants.csv is only ${k.k}-anonymous over ${k.quasiIdentifiers.join(", ")} (below k = ${K_ANONYMITY_THRESHOLD}): ${k.smallGroups.length} group(s) have fewer than ${K_ANONYMITY_THRESHOLD} participants. Consider leaving those columns out before sharing.`,
+      );
+    }
+    await add("participants.csv", Readable.from(csvChunks(partSpec.fields.map((f) => f.name), partRows)));
+
+    // questionnaires.csv: ratings; free text only when chosen
+    const qSpec = questionnairesTableSpec(options.includeDates);
+    const startOf = new Map(source.participants.map((p) => [p.id, p.startedAt]));
+    let freeTextLeftOut = 0;
+    async function* answerRows(): AsyncGenerator<Record<string, unknown>> {
+      for await (const a of source.answers()) {
+        if (!startOf.has(a.participantId)) continue;
+        if (a.condition === "" && CODED_FINAL_ITEMS.has(a.itemId)) continue; // in participants.csv, coarsened
+        const isText = a.valueText !== null && a.valueText !== "";
+        if (isText && !options.includeFreeText) {
+          freeTextLeftOut++;
+          if (a.valueInt === null) continue;
+        }
+        const start = startOf.get(a.participantId) ?? null;
+        yield {
+          participant: pseudonymOf(a.participantId),
+          condition: a.condition,
+          item: a.itemId,
+          value: a.valueInt,
+          text: isText && options.includeFreeText ? a.valueText : null,
+          answered_at: options.includeDates ? a.answeredAt.toISOString() : undefined,
+          answered_s: !options.includeDates && start ? Math.round((a.answeredAt.getTime() - start.getTime()) / 1000) : null,
+        };
+      }
+    }
+    await add("questionnaires.csv", Readable.from(csvChunks(qSpec.fields.map((f) => f.name), answerRows())));
+
+    // streams/: the stored gzip replay CSVs, one at a time, not recompressed
+    let streams = 0;
+    if (options.includeStreams) {
+      for await (const s of source.streams()) {
+        if (!startOf.has(s.participantId)) continue;
+        const data = await s.read();
+        if (!data) continue;
+        const name = `streams/${safe(pseudonymOf(s.participantId))}/b${s.block}-c${s.conditionIndex + 1}-s${s.sequence}${s.practice ? "-practice" : ""}.csv.gz`;
+        await add(name, data, true);
+        streams++;
+        if (streams % 20 === 0) onProgress(trialWeight + streamWeight * Math.min(1, streams / Math.max(1, source.counts.streams)), "raw streams");
+      }
+    }
+
+    onProgress(0.96, "descriptions");
+    const tables: TableSpec[] = [trialsSpec, seqSpec, cellSpec, condSpec, partSpec, qSpec];
+    const notes = [
+      `Participants are named by ${options.pseudonyms === "stable" ? "stable pseudonyms (a keyed hash; the same in every archive of this study)" : "random pseudonyms drawn for this archive only"}; participant codes, e-mail addresses, names, session links, IP addresses and user agents are not in the archive.`,
+      options.includeDates ? "Calendar dates are included (the researcher chose so)." : "Times are relative to each participant's session start; no calendar dates.",
+      options.includeFreeText ? "Free-text answers are included (the researcher chose so)." : `Free-text answers are left out (${freeTextLeftOut} left out).`,
+      `k-anonymity of participants.csv over ${k.quasiIdentifiers.join(", ")}: k = ${k.k}${k.k < K_ANONYMITY_THRESHOLD ? ` (below ${K_ANONYMITY_THRESHOLD}: take care)` : ""}.`,
+      "Consent records are not in the archive; the consent documents' texts are, under consent/.",
+      "Withdrawn participants are left out.",
+    ];
+    const streamSection = options.includeStreams
+      ? ["## streams/", "", "One gzip file per sequence, `streams/<participant>/b<block>-c<condition number>-s<sequence>.csv.gz`, in the raw sensor stream format: `t_ms, gyro_x, gyro_y, gyro_z` (deg/s about the device axes of the W3C Device Orientation and Motion specification), `accel_x, accel_y, accel_z` (m/s², including gravity), `stick_x, stick_y` (−1..1), `buttons` (bitmask), `screen_angle` (deg); `npm run replay` reads them. Condition numbers count from 1 in the order of conditions.csv.", ""]
+      : [];
+    const descriptor = buildDataPackage(
+      { id: source.study.id, title: source.study.title, description: "Anonymised data of a motion-aiming pointing study (ISO 9241-411 measures), exported from Yawpoint.", created: new Date() },
+      tables,
+    );
+    await add("datapackage.json", JSON.stringify(descriptor, null, 2) + "\n");
+    await add("codebook.md", buildCodebook(source.study.title, tables, notes, streamSection));
+    const ids = result.sequences.map((s) => s.id).filter(Number.isFinite);
+    const ides = result.sequences.map((s) => s.ide).filter(Number.isFinite);
+    await add(
+      "methods.md",
+      buildMethods(source.study.title, design, {
+        participants: source.participants.length,
+        completed: source.participants.filter((p) => p.status === "completed").length,
+        withdrawnLeftOut: 0,
+        conditions: conditions.map((c) => c.label),
+        idRange: ids.length ? [Math.min(...ids), Math.max(...ids)] : null,
+        ideRange: ides.length ? [Math.min(...ides), Math.max(...ides)] : null,
+        movements: result.movements,
+        excluded: result.excluded,
+        sequencesDropped: result.sequencesDropped.length,
+        start: analysisOptions.start,
+        exclude: analysisOptions.exclude,
+        unit: design.task.unit,
+      }),
+    );
+    for (const v of source.consentVersions) {
+      await add(`consent/consent-v${v.version}.md`, `<!-- consent version ${v.version}, ${v.status}, SHA-256 ${v.sha256 ?? "not frozen"} -->\n${v.bodyMd}`);
+    }
+    void archive.finalize();
+    await written;
+    await rename(tmpPath, outPath);
+    onProgress(1, "done");
+    return { sha256: counter.hash.digest("hex"), sizeBytes: counter.bytes, files, kAnonymity: k, warnings, movements, streams, result };
+  } catch (err) {
+    archive.abort();
+    await written.catch(() => {});
+    await unlink(tmpPath).catch(() => {});
+    throw err;
+  }
+}

@@ -1,0 +1,53 @@
+import type { TrialRow } from "../trials/trialRow";
+
+/** A stored movement (the trials table's columns, practice rows already left out). */
+export interface TrialRecord {
+  participant_id: number;
+  condition: string;
+  block: number;
+  sequence: number;
+  trial: number;
+  amplitude: number;
+  width: number;
+  from_x: number;
+  from_y: number;
+  to_x: number;
+  to_y: number;
+  start_x: number;
+  start_y: number;
+  end_x: number;
+  end_y: number;
+  time_ms: number;
+  hit: number | boolean;
+}
+
+/**
+ * A stored movement as the trial-table row the analysis reads (trialRowFromRecord), labelled
+ * with `participant` (a code on the results page, a pseudonym in an archive) and the condition's
+ * factor levels (f_NAME columns).
+ * Cost: O(factors).
+ * @throws never.
+ * @example trialRowFromRecord(rec, "P-7Q2K9A", { technique: "motion" }).factors.technique // "motion"
+ */
+export function trialRowFromRecord(rec: TrialRecord, participant: string, factors: Record<string, string>): TrialRow {
+  return {
+    participant,
+    condition: rec.condition,
+    block: Number(rec.block),
+    sequence: Number(rec.sequence),
+    trial: Number(rec.trial),
+    amplitude: Number(rec.amplitude),
+    width: Number(rec.width),
+    fromX: Number(rec.from_x),
+    fromY: Number(rec.from_y),
+    toX: Number(rec.to_x),
+    toY: Number(rec.to_y),
+    startX: Number(rec.start_x),
+    startY: Number(rec.start_y),
+    endX: Number(rec.end_x),
+    endY: Number(rec.end_y),
+    timeMs: Number(rec.time_ms),
+    hit: rec.hit === true || Number(rec.hit) === 1,
+    factors,
+  };
+}
