@@ -1,0 +1,52 @@
+import { notFound } from "next/navigation";
+import { assertCanViewStudy, requireRole } from "@/lib/auth/guards";
+import { db } from "@/lib/db";
+import { AppError } from "@/lib/errors";
+import { fetchMonitor } from "@/lib/data/participants";
+import { getCurrentUser } from "@/lib/session";
+import { AutoRefresh } from "./AutoRefresh";
+
+export const dynamic = "force-dynamic";
+
+/** Live monitor of a study's sessions (refreshes every 10 s). */
+export default async function MonitorPage({ params }: { params: Promise<{ id: string }> }) {
+  const id = Number((await params).id);
+  if (!Number.isInteger(id) || id <= 0) notFound();
+  let title: string;
+  try {
+    const user = requireRole(await getCurrentUser(), "researcher");
+    title = (await assertCanViewStudy(db, user, id)).study.title;
+  } catch (e) {
+    if (e instanceof AppError && (e.status === 404 || e.status === 403)) notFound();
+    throw e;
+  }
+  const sessions = await fetchMonitor(db, id);
+  const active = sessions.filter((s) => s.status === "consented" || s.status === "in_progress").length;
+  return (
+    <article className="space-y-3">
+      <h1>Live sessions: {title}</h1>
+      <p className="text-sm">{active} in progress, {sessions.length} started in total. <AutoRefresh seconds={10} /></p>
+      <table className="w-full text-sm">
+        <thead>
+          <tr className="text-left">
+            <th>Participant</th><th>Status</th><th>Last activity</th><th>Rounds stored</th><th>Sensor rate</th><th>Error rate</th><th>Data quality</th>
+          </tr>
+        </thead>
+        <tbody>
+          {sessions.map((s) => (
+            <tr key={s.code} className="border-t border-slate-200 align-top">
+              <td className="font-mono">{s.code}</td>
+              <td>{s.status.replace("_", " ")}</td>
+              <td>{s.lastActivityAt ? s.lastActivityAt.toISOString().replace("T", " ").slice(0, 19) + " UTC" : "—"}</td>
+              <td>{s.sequencesStored}{s.sequencesPlanned !== null ? ` of ${s.sequencesPlanned}` : ""}</td>
+              <td>{s.sampleRateHz !== null ? `${Math.round(s.sampleRateHz)} Hz` : "—"}</td>
+              <td>{s.errorRate !== null ? `${(100 * s.errorRate).toFixed(1)} %` : "—"}</td>
+              <td>{s.flags.length === 0 ? "no warnings" : <ul className="list-disc pl-4">{s.flags.map((f) => <li key={f}>warning: {f}</li>)}</ul>}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      {sessions.length === 0 && <p className="notice">No participant has started yet.</p>}
+    </article>
+  );
+}

@@ -1,0 +1,295 @@
+"use client";
+import { useCallback, useEffect, useMemo, useRef, useState } from "react";
+import { conditionConfig, conditionsOf, type StudyDesign } from "@/lib/study/design";
+import type { TransferConfig } from "@/lib/motion/config";
+import { planSession } from "@/lib/runner/plan";
+import { uploadKey } from "@/lib/runner/uploadKey";
+import { STAGES, advanceProgress, currentStep, initialProgress, progressFraction, type Progress } from "@/lib/runner/progress";
+import { trialUnit } from "@/lib/runner/calibration";
+import { selectButtonFor } from "@/lib/runner/selectButton";
+import type { SequenceBatch } from "@/lib/runner/batch";
+import type { CalibrationRequest, DeviceRequest, SessionState } from "@/lib/runner/requests";
+import { errorMessage, postSession } from "./api";
+import { openSessionStore, type SessionStore } from "./store";
+import { createUploader, type Uploader, type UploadStatus } from "./uploader";
+import { createLiveProvider, type InputProvider } from "./inputs";
+import { TaskCanvas, type FinishedSequence, type TaskSetup } from "./TaskCanvas";
+import { BreakStep, ConditionQuestionnaire, ConsentStep, FinalQuestionnaire, InfoStep, InstructionsStep } from "./Steps";
+import { CalibrationStep, DeviceStep } from "./Checks";
+
+const rank = (p: Progress): number => STAGES.indexOf(p.stage) * 100_000 + p.done;
+
+function base64(bytes: Uint8Array): string {
+  let s = "";
+  for (let i = 0; i < bytes.length; i += 0x8000) s += String.fromCharCode(...bytes.subarray(i, i + 0x8000));
+  return btoa(s);
+}
+
+/** The participant's whole session: every step, resumable, with the local store and the upload queue. */
+export function SessionApp({ token, initial }: { token: string; initial: SessionState }) {
+  const [st, setSt] = useState(initial);
+  const design = st.design as StudyDesign;
+  const [progress, setProgress] = useState<Progress>((initial.progress as Progress) ?? initialProgress());
+  const [ready, setReady] = useState(false);
+  const [busy, setBusy] = useState(false);
+  const [error, setError] = useState<string | null>(null);
+  const [upload, setUpload] = useState<UploadStatus>({ pending: 0, refused: 0, sending: false, waiting: false, stopped: false });
+  const [withdrawing, setWithdrawing] = useState(false);
+  const [withdrawn, setWithdrawn] = useState(initial.status === "withdrawn");
+  const [code, setCode] = useState<string | null>(initial.completionCode);
+  const [calibration, setCalibration] = useState(initial.calibration);
+  const storeRef = useRef<SessionStore | null>(null);
+  const uploaderRef = useRef<Uploader | null>(null);
+  const providerRef = useRef<InputProvider | null>(null);
+
+  const conditions = useMemo(() => conditionsOf(design), [design]);
+  const configs = useMemo(() => conditions.map((c) => conditionConfig(design, c)), [design, conditions]);
+  const techniques = useMemo(() => [...new Set(configs.map((c) => c.technique))], [configs]);
+  const motion = techniques.some((t) => t !== "mouse" && t !== "touch" && t !== "stick");
+  const plan = useMemo(() => (st.order && st.planSeed !== null ? planSession(design, st.order, st.planSeed) : []), [design, st.order, st.planSeed]);
+
+  const getProvider = useCallback(async (): Promise<InputProvider> => {
+    if (providerRef.current) return providerRef.current;
+    let provider: InputProvider = createLiveProvider(window, true);
+    if (process.env.NEXT_PUBLIC_YAWPOINT_TEST_SOURCES === "1" && new URLSearchParams(window.location.search).get("source") === "simulated") {
+      const { createSimulatedProvider } = await import("./testSource");
+      provider = createSimulatedProvider(st.participantId);
+    }
+    providerRef.current = provider;
+    return provider;
+  }, [st.participantId]);
+
+  // open the local store, resume from whichever progress is further, start the upload queue
+  useEffect(() => {
+    if (withdrawn || st.status === "completed") {
+      setReady(true);
+      return;
+    }
+    let cancelled = false;
+    void (async () => {
+      const store = await openSessionStore(st.participantId);
+      if (cancelled) return;
+      storeRef.current = store;
+      const local = await store.progress();
+      if (local && rank(local) > rank(progress)) setProgress(local);
+      uploaderRef.current = createUploader(token, store, setUpload);
+      uploaderRef.current.kick();
+      if (motion && st.order) await getProvider();
+      setReady(true);
+    })();
+    return () => {
+      cancelled = true;
+      uploaderRef.current?.stop();
+    };
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, []);
+
+  const persist = useCallback((p: Progress): void => {
+    setProgress(p);
+    void storeRef.current?.saveProgress(p);
+    if (p.stage !== "info" && p.stage !== "consent") void postSession(token, "progress", p).catch(() => undefined);
+  }, [token]);
+
+  const next = useCallback((): void => persist(advanceProgress(progress, plan, design)), [persist, progress, plan, design]);
+
+  const refresh = async (): Promise<SessionState> => {
+    const res = await fetch(`/api/session/${encodeURIComponent(token)}`, { cache: "no-store", credentials: "omit" });
+    const s = (await res.json()) as SessionState;
+    setSt(s);
+    return s;
+  };
+
+  const send = async (path: string, body: unknown): Promise<boolean> => {
+    setBusy(true);
+    setError(null);
+    try {
+      const res = await postSession(token, path, body);
+      if (res.status === 410) {
+        setWithdrawn(true);
+        return false;
+      }
+      if (!res.ok) {
+        setError(await errorMessage(res));
+        return false;
+      }
+      return true;
+    } catch {
+      setError("The server cannot be reached. Check your connection and try again.");
+      return false;
+    } finally {
+      setBusy(false);
+    }
+  };
+
+  const step = currentStep(progress, plan, design);
+  const item = step.kind === "sequence" ? plan[step.index] : undefined;
+  const setup = useMemo<TaskSetup | null>(() => {
+    if (!item) return null;
+    const base = configs[item.conditionIndex]!;
+    const b = calibration.bias;
+    const config: TransferConfig = b ? { ...base, biasXDegPerS: b.x, biasYDegPerS: b.y, biasZDegPerS: b.z } : base;
+    return {
+      type: design.task.type, displayMode: design.task.displayMode, unit: design.task.unit, targetsPerRing: design.task.targetsPerRing,
+      amplitude: item.amplitude, width: item.width, selection: design.task.selection, dwellMs: design.task.dwellMs, timeLimitMs: design.task.trialTimeLimitMs,
+      config, selectButton: selectButtonFor(config), calibration: { pixelsPerMm: calibration.pixelsPerMm, viewingDistanceMm: calibration.viewingDistanceMm },
+    };
+    // a new setup object per sequence (index), not per render
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [step.kind === "sequence" ? step.index : -1, calibration]);
+
+  const onFinished = useCallback(async (f: FinishedSequence): Promise<void> => {
+    if (!item || step.kind !== "sequence") return;
+    const batch: SequenceBatch = {
+      key: uploadKey(st.participantId, item), practice: item.practice, block: item.block, conditionIndex: item.conditionIndex, condition: item.condition, sequence: item.sequence,
+      unit: trialUnit(design.task.unit), amplitude: item.amplitude, width: item.width, movements: f.movements,
+      stream: { gzipBase64: base64(f.streamGzip), sampleCount: f.samples.length }, quality: f.quality,
+    };
+    const p = advanceProgress(progress, plan, design);
+    await storeRef.current?.finishSequence(batch, p);
+    setProgress(p);
+    uploaderRef.current?.kick();
+    void postSession(token, "progress", p).catch(() => undefined);
+  }, [item, step.kind, st.participantId, design, progress, plan, token]);
+
+  // completion: wait until every sequence has left the browser, then ask for the code
+  useEffect(() => {
+    if (progress.stage !== "complete" || code || withdrawn || upload.pending > 0 || upload.refused > 0 || !ready) return;
+    void (async () => {
+      const res = await postSession(token, "complete", {}).catch(() => null);
+      if (res?.ok) setCode(((await res.json()) as { completionCode: string }).completionCode);
+      else if (res) setError(await errorMessage(res));
+    })();
+  }, [progress.stage, code, withdrawn, upload.pending, upload.refused, ready, token]);
+
+  const withdraw = async (): Promise<void> => {
+    uploaderRef.current?.stop();
+    providerRef.current?.stop();
+    await storeRef.current?.clear();
+    if (await send("withdraw", {})) setWithdrawn(true);
+    setWithdrawing(false);
+  };
+
+  if (withdrawn) {
+    return (
+      <main className="mx-auto max-w-xl space-y-3 p-4">
+        <h1 className="text-xl font-semibold">You have withdrawn</h1>
+        <p>Thank you for your time. No further data is recorded from this session{design.eraseOnWithdrawal ? ", and what was recorded so far has been erased" : ""}.</p>
+      </main>
+    );
+  }
+  if (!ready) return <main className="p-4"><p>Loading your session…</p></main>;
+
+  const fraction = progressFraction(progress, plan);
+  const measured = plan.filter((s) => !s.practice).length;
+  const header = (
+    <header className="flex flex-wrap items-center gap-2 border-b border-slate-300 px-3 py-2 text-sm">
+      <span className="font-semibold">{st.study.title}</span>
+      <div className="flex min-w-[8rem] flex-1 items-center gap-2">
+        <progress className="h-2 flex-1" max={1} value={fraction} aria-label="Progress" />
+        <span data-testid="progress-text">{Math.round(fraction * 100)} % done</span>
+      </div>
+      <span data-testid="upload-status" aria-live="polite">
+        {upload.refused > 0 ? `${upload.refused} round(s) refused by the server` : upload.pending > 0 ? (upload.waiting ? `${upload.pending} round(s) kept on this device, sending when the connection returns` : `sending ${upload.pending} round(s)…`) : "all data sent"}
+      </span>
+      {progress.stage !== "complete" && <button type="button" className="btn-secondary" onClick={() => setWithdrawing(true)}>Stop and withdraw</button>}
+    </header>
+  );
+  const confirm = withdrawing && (
+    <div role="dialog" aria-modal="true" aria-labelledby="withdraw-title" className="card m-3 space-y-2">
+      <h2 id="withdraw-title" className="font-semibold">Stop and withdraw?</h2>
+      <p>No further data will be recorded. {design.eraseOnWithdrawal ? "What was recorded so far will be erased." : "What was recorded so far is kept, as the consent document explains."}</p>
+      <div className="flex gap-2">
+        <button type="button" className="btn" onClick={() => void withdraw()}>Withdraw</button>
+        <button type="button" className="btn-secondary" onClick={() => setWithdrawing(false)}>Keep going</button>
+      </div>
+    </div>
+  );
+
+  let body: React.ReactNode;
+  switch (step.kind) {
+    case "info":
+      body = <InfoStep title={st.study.title} summary={st.study.summary} compensation={st.study.compensation} viewMode={design.task.displayMode === "view"} onNext={next} />;
+      break;
+    case "consent":
+      body = st.consent ? (
+        <ConsentStep body={st.consent.body} requireName={design.requireTypedName} busy={busy} error={error} onSign={async (v) => {
+          const ok = await send("consent", { consentVersionId: st.consent!.versionId, versionHash: st.consent!.hash, agreed: v.agreed, typedName: v.typedName, email: v.email, screenShortSidePx: Math.min(window.screen.width, window.screen.height) || null });
+          if (ok) {
+            await refresh();
+            persist({ ...progress, stage: "device" });
+          }
+        }} />
+      ) : <p className="notice">This study cannot take part yet: its consent document is not approved.</p>;
+      break;
+    case "device":
+      body = <DeviceStep techniques={techniques} minRateHz={design.minSampleRateHz} provider={getProvider} onDone={async (r: DeviceRequest) => {
+        if (await send("device", r)) if (r.verdict === "ok") next();
+      }} />;
+      break;
+    case "calibration":
+      body = <CalibrationStep motion={motion} needsDistance={design.task.unit === "deg-visual"} provider={getProvider}
+        onSave={async (r: CalibrationRequest) => {
+          if (!(await send("calibration", r))) throw new Error("not saved");
+          if (r.kind === "bias") setCalibration((c) => ({ ...c, bias: { x: r.biasXDegPerS, y: r.biasYDegPerS, z: r.biasZDegPerS } }));
+          if (r.kind === "card") setCalibration((c) => ({ ...c, pixelsPerMm: r.pixelsPerMm }));
+          if (r.kind === "blind_spot") setCalibration((c) => ({ ...c, viewingDistanceMm: r.viewingDistanceMm }));
+        }}
+        onDone={next} />;
+      break;
+    case "instructions":
+      body = <InstructionsStep selection={design.task.selection} displayMode={design.task.displayMode} pointer={!motion} onNext={next} />;
+      break;
+    case "break":
+      body = <BreakStep key={step.index} seconds={step.seconds} onNext={next} />;
+      break;
+    case "sequence": {
+      const done = plan.slice(0, step.index).filter((s) => !s.practice).length;
+      body = setup && item ? (
+        <div className="flex h-[calc(100vh-7rem)] flex-col">
+          <p className="px-3 py-1 text-sm" data-testid="round-label">{item.practice ? "Practice round (does not count)" : `Round ${done + 1} of ${measured}`}</p>
+          <TaskCanvas key={step.index} setup={setup} provider={motion ? providerRef.current : null}
+            onMovement={(m) => void storeRef.current?.saveMovement(uploadKey(st.participantId, item), m)}
+            onFinished={(f) => void onFinished(f)} />
+        </div>
+      ) : null;
+      break;
+    }
+    case "condition-questionnaire":
+      body = <ConditionQuestionnaire key={step.condition} items={design.perConditionItems} busy={busy} onSubmit={async (answers) => {
+        if (await send("questionnaire", { condition: step.condition, answers })) next();
+      }} />;
+      break;
+    case "final":
+      body = <FinalQuestionnaire ask={design.finalQuestionnaire} busy={busy} onSubmit={async (answers) => {
+        if (await send("questionnaire", { condition: "", answers })) next();
+      }} />;
+      break;
+    case "complete":
+      body = code ? (
+        <section className="space-y-3">
+          <h1 className="text-xl font-semibold">Thank you: you have finished</h1>
+          <p>Your completion code:</p>
+          <p className="text-2xl font-mono font-semibold" data-testid="completion-code">{code}</p>
+          <p>Copy it into the recruitment site if it asks for one.</p>
+        </section>
+      ) : (
+        <section className="space-y-3">
+          <h1 className="text-xl font-semibold">Sending your last data…</h1>
+          <p>Keep this page open. {upload.waiting ? "The connection is down; the data waits on this device and is sent when it returns." : ""}</p>
+          {error && <p className="field-error" role="alert">{error}</p>}
+        </section>
+      );
+      break;
+  }
+
+  return (
+    <div className="flex min-h-screen flex-col">
+      {header}
+      {confirm}
+      <main className={step.kind === "sequence" ? "flex-1" : "mx-auto w-full max-w-xl flex-1 space-y-3 p-4"}>
+        {step.kind !== "consent" && step.kind !== "sequence" && error && <p className="field-error" role="alert">{error}</p>}
+        {body}
+      </main>
+    </div>
+  );
+}
