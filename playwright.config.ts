@@ -10,7 +10,7 @@ export default defineConfig({
   workers: 1,
   retries: 0,
   timeout: 60_000,
-  reporter: [["list"], ["json", { outputFile: "test-results/playwright.json" }]],
+  reporter: [["list"], ["json", { outputFile: "reports/playwright.json" }]],
   use: {
     baseURL,
     trace: "retain-on-failure",

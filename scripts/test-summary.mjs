@@ -3,12 +3,12 @@ import { existsSync, readFileSync } from "node:fs";
 
 let passed = 0, failed = 0, skipped = 0;
 const missing = [];
-if (existsSync("test-results/vitest.json")) {
-  const v = JSON.parse(readFileSync("test-results/vitest.json", "utf8"));
+if (existsSync("reports/vitest.json")) {
+  const v = JSON.parse(readFileSync("reports/vitest.json", "utf8"));
   passed += v.numPassedTests; failed += v.numFailedTests + (v.numFailedTestSuites ?? 0); skipped += v.numPendingTests + (v.numTodoTests ?? 0);
 } else missing.push("vitest");
-if (existsSync("test-results/playwright.json")) {
-  const p = JSON.parse(readFileSync("test-results/playwright.json", "utf8"));
+if (existsSync("reports/playwright.json")) {
+  const p = JSON.parse(readFileSync("reports/playwright.json", "utf8"));
   passed += p.stats.expected; failed += p.stats.unexpected + p.stats.flaky; skipped += p.stats.skipped;
   if ((p.errors ?? []).length) failed += p.errors.length;
 } else missing.push("playwright");

@@ -12,7 +12,7 @@ export MAIL_FAKE_HTTP_PORT="${TEST_MAIL_HTTP_PORT:-2581}"
 export PORT="${TEST_PORT:-3100}"
 export NEXTAUTH_URL="http://127.0.0.1:$PORT"
 export NEXTAUTH_SECRET="test-secret-$(date +%s)-not-for-production"
-mkdir -p test-results
+mkdir -p reports && rm -f reports/*.json
 
 set -e
 ensure_node_modules
@@ -24,7 +24,7 @@ set +e
 
 status=0
 npx tsc --noEmit -p . && echo "typecheck: ok" || status=1
-npx vitest run --reporter=default --reporter=json --outputFile=test-results/vitest.json || status=1
+npx vitest run --reporter=default --reporter=json --outputFile=reports/vitest.json || status=1
 NODE_ENV=production npx next build || status=1
 if [ -f .next/BUILD_ID ]; then
   npx playwright test || status=1

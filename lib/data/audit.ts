@@ -34,16 +34,18 @@ export function auditHash(prevHash: string, canonical: string): string {
 
 /**
  * Appends one entry to the append-only audit log, chained to the previous entry's hash.
- * Serialised with a named lock so concurrent appends cannot fork the chain.
+ * Serialised with a named lock held on one connection until the insert has committed, so
+ * concurrent appends can neither fork the chain nor read a head that is not yet committed.
  */
 export async function appendAudit(db: Knex, entry: AuditEntryInput): Promise<void> {
-  await db.transaction(async (trx) => {
-    await trx.raw("SELECT GET_LOCK('yawpoint_audit', 10)");
+  const conn: unknown = await db.client.acquireConnection();
+  try {
+    const [lockRows] = (await db.raw("SELECT GET_LOCK('yawpoint_audit', 20) AS got").connection(conn)) as [{ got: number | null }[]];
+    if (lockRows[0]?.got !== 1) throw new Error("appendAudit: the audit log is busy; try again");
     try {
-      const last = await trx<AuditRow>("audit_log").orderBy("id", "desc").first("hash");
+      const last = await db<AuditRow>("audit_log").connection(conn).orderBy("id", "desc").first("hash");
       const prevHash = last?.hash ?? GENESIS_HASH;
-      // Millisecond precision: what DATETIME(3) stores, so verification recomputes the same text.
-      const at = new Date(Math.floor(Date.now()));
+      const at = new Date(); // millisecond precision, what DATETIME(3) stores
       const content = {
         at,
         actorUserId: entry.actorUserId,
@@ -53,7 +55,8 @@ export async function appendAudit(db: Knex, entry: AuditEntryInput): Promise<voi
         details: entry.details ?? {},
       };
       const hash = auditHash(prevHash, auditCanonical(content));
-      await trx("audit_log").insert({
+      // autocommit: the row is committed before the lock is released
+      await db("audit_log").connection(conn).insert({
         at,
         actor_user_id: content.actorUserId,
         actor_label: content.actorLabel,
@@ -64,9 +67,11 @@ export async function appendAudit(db: Knex, entry: AuditEntryInput): Promise<voi
         hash,
       });
     } finally {
-      await trx.raw("SELECT RELEASE_LOCK('yawpoint_audit')");
+      await db.raw("SELECT RELEASE_LOCK('yawpoint_audit')").connection(conn);
     }
-  });
+  } finally {
+    await db.client.releaseConnection(conn);
+  }
 }
 
 export type AuditVerification = { intact: true; entries: number } | { intact: false; entries: number; firstBrokenId: number; reason: string };

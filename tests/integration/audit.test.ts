@@ -20,19 +20,19 @@ describe("audit chain", () => {
 
   it("appends concurrently without forking, verifies intact, and names the first tampered entry", async () => {
     await db("audit_log").delete();
-    await Promise.all(Array.from({ length: 12 }, (_, i) => appendAudit(db, { actorUserId: null, actorLabel: "system", action: "test.append", details: { i } })));
+    await Promise.all(Array.from({ length: 40 }, (_, i) => appendAudit(db, { actorUserId: null, actorLabel: "system", action: "test.append", details: { i } })));
     const rows = await db("audit_log").orderBy("id");
     expect(rows[0].prev_hash).toBe(GENESIS_HASH);
     for (let i = 1; i < rows.length; i++) expect(rows[i].prev_hash).toBe(rows[i - 1].hash);
-    expect(await verifyAuditChain(db)).toEqual({ intact: true, entries: 12 });
+    expect(await verifyAuditChain(db)).toEqual({ intact: true, entries: 40 });
 
     const victim = rows[5];
     await db("audit_log").where({ id: victim.id }).update({ details: JSON.stringify({ i: 999 }) });
     expect(await verifyAuditChain(db)).toMatchObject({ intact: false, firstBrokenId: victim.id });
 
     await db("audit_log").where({ id: victim.id }).update({ details: JSON.stringify(typeof victim.details === "string" ? JSON.parse(victim.details) : victim.details) });
-    expect(await verifyAuditChain(db)).toEqual({ intact: true, entries: 12 });
-    await db("audit_log").where({ id: rows[8].id }).delete();
-    expect(await verifyAuditChain(db)).toMatchObject({ intact: false, firstBrokenId: rows[9].id });
+    expect(await verifyAuditChain(db)).toEqual({ intact: true, entries: 40 });
+    await db("audit_log").where({ id: rows[28].id }).delete();
+    expect(await verifyAuditChain(db)).toMatchObject({ intact: false, firstBrokenId: rows[29].id });
   });
 });
