@@ -1,3 +1,4 @@
+import Link from "next/link";
 import { requireRole } from "@/lib/auth/guards";
 import { db } from "@/lib/db";
 import { fetchStudiesInReview } from "@/lib/data/studies";
@@ -20,7 +21,7 @@ export default async function ReviewQueuePage() {
             <thead><tr><th>Study</th><th>Protocol</th><th>Researcher</th><th>Submitted</th></tr></thead>
             <tbody>
               {studies.map((s) => (
-                <tr key={s.id}><td>{s.title}</td><td>{s.protocolNumber ?? "—"}</td><td>{s.ownerName}</td><td>{s.updatedAt.toISOString().slice(0, 10)}</td></tr>
+                <tr key={s.id}><td><Link href={`/review/studies/${s.id}`}>{s.title}</Link></td><td>{s.protocolNumber ?? "—"}</td><td>{s.ownerName}</td><td>{s.updatedAt.toISOString().slice(0, 10)}</td></tr>
               ))}
             </tbody>
           </table>

@@ -1,32 +1,29 @@
-import { notFound } from "next/navigation";
-import { assertCanViewStudy } from "@/lib/auth/guards";
 import { db } from "@/lib/db";
-import { AppError } from "@/lib/errors";
-import { getCurrentUser } from "@/lib/session";
-import { StatusBadge } from "@/components/ui/StatusBadge";
+import { fetchDesign } from "@/lib/study/service/design";
+import { listTeam } from "@/lib/study/service/meta";
+import { designSummary } from "@/lib/study/summary/designSummary";
+import { StudyMetaForm, TeamForm } from "@/components/study/StudyMetaForm";
+import { studyForPage } from "./access";
 
-export default async function StudyPage({ params }: { params: Promise<{ id: string }> }) {
-  const id = Number((await params).id);
-  if (!Number.isInteger(id) || id <= 0) notFound();
-  let access;
-  try {
-    access = await assertCanViewStudy(db, await getCurrentUser(), id);
-  } catch (e) {
-    if (e instanceof AppError && (e.status === 404 || e.status === 403)) notFound();
-    throw e;
-  }
-  const { study, teamRole } = access;
+export default async function StudyOverviewPage({ params }: { params: Promise<{ id: string }> }) {
+  const { study, canEdit, isOwner } = await studyForPage((await params).id);
+  const [team, stored] = await Promise.all([listTeam(db, study.id), fetchDesign(db, study.id)]);
+  const summary = stored.design ? designSummary(stored.design) : null;
   return (
-    <article className="space-y-4">
-      <div className="flex flex-wrap items-center gap-3">
-        <h1>{study.title}</h1>
-        <StatusBadge status={study.status} />
-      </div>
+    <div className="space-y-4">
       <dl className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm">
         <dt className="font-semibold">Ethics protocol</dt><dd>{study.protocolNumber ?? "not yet assigned"}</dd>
-        <dt className="font-semibold">Your role</dt><dd>{teamRole}</dd>
+        <dt className="font-semibold">Design</dt><dd>{summary ? `${summary.conditions.length} conditions, ${summary.trialsPerParticipant} trials, about ${summary.estimatedMinutes} minutes per participant` : "not saved yet"}</dd>
       </dl>
       <p className="max-w-prose whitespace-pre-line text-sm">{study.summary}</p>
-    </article>
+      {canEdit && <StudyMetaForm studyId={study.id} initial={{ title: study.title, summary: study.summary, protocolNumber: study.protocolNumber }} />}
+      <section className="space-y-2">
+        <h2>Team</h2>
+        <table className="max-w-xl"><thead><tr><th>Name</th><th>E-mail</th><th>Role</th></tr></thead>
+          <tbody>{team.map((m) => <tr key={m.userId}><td>{m.name}</td><td>{m.email}</td><td>{m.role}</td></tr>)}</tbody>
+        </table>
+        {isOwner && <TeamForm studyId={study.id} />}
+      </section>
+    </div>
   );
 }

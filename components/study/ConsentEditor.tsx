@@ -1,0 +1,45 @@
+"use client";
+
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { useForm } from "react-hook-form";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { consentBodySchema, type ConsentBodyInput } from "@/lib/consent/schema";
+import { consentChecklist } from "@/lib/consent/consentChecklist";
+import { ConsentChecklistView } from "./ConsentChecklistView";
+import { ConsentMarkdown } from "./ConsentMarkdown";
+import { apiSend, ApiError } from "./api";
+
+/** Writes the consent text (Markdown) with a live preview and the checklist; saving edits the draft or starts a new version. */
+export function ConsentEditor({ studyId, initial, note }: { studyId: number; initial: string; note: string }) {
+  const router = useRouter();
+  const [status, setStatus] = useState<string | null>(null);
+  const { register, handleSubmit, watch, setError, formState: { errors, isSubmitting } } = useForm<ConsentBodyInput>({ resolver: zodResolver(consentBodySchema), defaultValues: { body: initial } });
+  const body = watch("body");
+  const onSubmit = handleSubmit(async (v) => {
+    try {
+      const r = await apiSend<{ version: { version: number } }>("POST", `/api/studies/${studyId}/consent`, v);
+      setStatus(`Saved as version ${r.version.version} (draft).`);
+      router.refresh();
+    } catch (e) {
+      setError("body", { message: e instanceof ApiError ? e.message : String(e) });
+    }
+  });
+  return (
+    <form onSubmit={onSubmit} className="grid gap-4 lg:grid-cols-2" noValidate>
+      <div className="space-y-2">
+        <label htmlFor="consent-body">Consent text (Markdown)</label>
+        <p className="text-xs text-slate-600">{note}</p>
+        <textarea id="consent-body" className="input font-mono text-xs" rows={24} {...register("body")} aria-describedby={errors.body ? "consent-error" : undefined} />
+        {errors.body && <p id="consent-error" className="field-error" role="alert">{errors.body.message}</p>}
+        {status && <p className="notice" role="status">{status}</p>}
+        <button className="btn" disabled={isSubmitting}>Save consent text</button>
+        <ConsentChecklistView items={consentChecklist(body ?? "")} />
+      </div>
+      <div className="card space-y-2" aria-label="Preview">
+        <h2>Preview</h2>
+        <ConsentMarkdown text={body ?? ""} />
+      </div>
+    </form>
+  );
+}
