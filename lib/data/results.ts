@@ -1,4 +1,7 @@
+import { assertCanViewStudy, type SessionUser } from "@/lib/auth/guards";
 import type { Queryable } from "@/lib/db";
+import type { Study, TeamRole } from "@/lib/data/studies";
+import { forbidden } from "@/lib/errors";
 import { studyDesignSchema, type StudyDesign } from "@/lib/study/design";
 import type { ParticipantStatus, ResultsParticipant, TrialRecord } from "@/lib/results";
 
@@ -71,4 +74,26 @@ export async function fetchStreamBytes(q: Queryable, streamId: number): Promise<
 export async function fetchStudyParticipant(q: Queryable, studyId: number, participantId: number): Promise<ResultsParticipant | undefined> {
   const r = await q("participants").where({ study_id: studyId, id: participantId }).first<{ id: number; code: string; status: ParticipantStatus; cb_row: number | null } | undefined>("id", "code", "status", "cb_row");
   return r ? { id: r.id, code: r.code, status: r.status, cbRow: r.cb_row } : undefined;
+}
+
+/** The latest rest-calibration bias of a participant (deg/s per axis), as the session stored it; {} when none. */
+export async function fetchCalibratedBias(q: Queryable, participantId: number): Promise<{ biasXDegPerS?: number; biasYDegPerS?: number; biasZDegPerS?: number }> {
+  const row = await q("calibrations").where({ participant_id: participantId, kind: "bias" }).orderBy("id", "desc").first<{ result: unknown } | undefined>("result");
+  const r = (row ? parseJson(row.result) : null) as Record<string, unknown> | null;
+  const out: { biasXDegPerS?: number; biasYDegPerS?: number; biasZDegPerS?: number } = {};
+  for (const k of ["biasXDegPerS", "biasYDegPerS", "biasZDegPerS"] as const) {
+    const v = r?.[k];
+    if (typeof v === "number" && Number.isFinite(v) && Math.abs(v) <= 50) out[k] = v;
+  }
+  return out;
+}
+
+/**
+ * Team members only (owner, editor, viewer): the results hold trial data, which reviewers do not
+ * need (product brief). @throws 401, 403, 404 as the guards.
+ */
+export async function assertStudyTeam(q: Queryable, user: SessionUser | null, studyId: number): Promise<{ study: Study; teamRole: TeamRole }> {
+  const { study, teamRole } = await assertCanViewStudy(q, user, studyId);
+  if (teamRole === null) throw forbidden("Only the study's team sees its results.");
+  return { study, teamRole };
 }

@@ -8,3 +8,4 @@ export { progressCounts, PARTICIPANT_STATUSES, type ParticipantStatus, type Prog
 export { replayTrajectory, type Trajectory } from "./replayTrajectory";
 export { qualityFlags, type QualityFlag, type QualityThresholds } from "./qualityFlags";
 export { buildResultsView, type ResultsView, type ResultsParticipant } from "./buildResultsView";
+export { participantView, type ParticipantView, type ParticipantSequenceView, type ParticipantStream } from "./participantView";

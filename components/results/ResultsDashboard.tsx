@@ -1,0 +1,95 @@
+"use client";
+import Link from "next/link";
+import useSWR from "swr";
+import { fmt } from "./chartStyle";
+import { EndpointChart } from "./EndpointChart";
+import { ExportPanel } from "./ExportPanel";
+import { Figure } from "./Figure";
+import { FittsChart } from "./FittsChart";
+import { LearningChart } from "./LearningChart";
+import { ProgressTable } from "./ProgressTable";
+import { fetchJson, type ResultsResponse } from "./ResultsTypes";
+import { AnovaTable, ConditionTable, PosthocTable } from "./StatsTables";
+import { IntervalBarChart } from "./ThroughputChart";
+
+/** The results page: fetched on the client and refreshed every 15 s while data arrive. */
+export function ResultsDashboard({ studyId }: { studyId: number }) {
+  const { data, error, isLoading } = useSWR(`/api/studies/${studyId}/results`, (u: string) => fetchJson<ResultsResponse>(u), { refreshInterval: 15_000 });
+  if (isLoading) return <p role="status">Loading the results…</p>;
+  if (error) return <p className="notice" role="alert">The results could not be loaded: {(error as Error).message}</p>;
+  if (!data) return null;
+  const view = data.results;
+  const unit = view?.unit ?? "px";
+  const a = view?.analysis ?? null;
+  return (
+    <div className="space-y-6">
+      <p className="text-sm text-slate-700">Computed {new Date(data.computedAt).toLocaleTimeString()}; refreshes on its own while participants take part. <span className="print:hidden">Print this page for a paper copy.</span></p>
+      {!data.hasDesign && <p className="notice">This study has no design yet.</p>}
+      {view && (
+        <section className="card space-y-2" aria-labelledby="progress-title">
+          <h2 id="progress-title">Progress</h2>
+          <ProgressTable view={view} />
+        </section>
+      )}
+      {view?.analysisError && <p className="notice" role="alert">The analysis stopped: {view.analysisError}</p>}
+      {view && !a && !view.analysisError && <p className="notice">No movements recorded yet.</p>}
+      {view && a && (
+        <>
+          <section className="space-y-4" aria-labelledby="perf-title">
+            <h2 id="perf-title">Performance by condition</h2>
+            <div className="grid gap-4 lg:grid-cols-2">
+              <Figure id="tp" title="Throughput" caption={`Mean throughput TP per condition (bits/s) over ${a.missing.participantsIncluded} participants' cell means (mean of means, ISO 9241-411); whiskers are 95 % t intervals. Labels give the means.`}>
+                <IntervalBarChart analysis={a} measure="tp" />
+              </Figure>
+              <Figure id="errors" title="Error rates" caption="Mean share of selections outside the target per condition (%), misfires removed; whiskers are 95 % t intervals over participants.">
+                <IntervalBarChart analysis={a} measure="errorRate" />
+              </Figure>
+              <Figure id="fitts" title="Movement time against effective difficulty" caption={`Mean movement time MT (ms) of each A×W pair against its effective index of difficulty IDe (bits), pooled over participants; each condition has its own marker shape and its fitted line MT = a + b·IDe in its own dash pattern.`}>
+                <FittsChart view={view} />
+              </Figure>
+              <Figure id="learning" title="Learning across blocks" caption="Mean throughput (bits/s) per block and condition: participants' block means, then their mean. Lines differ by dash pattern and marker, not colour alone.">
+                <LearningChart view={view} />
+              </Figure>
+            </div>
+            <Figure id="endpoints" title="End points on the task axis" caption={`Selection points relative to the target centre, rotated so the movement runs left to right, in target widths W (unit of W: ${unit}). x > 0 is overshoot. The shaded band is ±We/2, the effective width (We = 4.133·SDx); filled dots are hits, crosses are misses; misfires are left out. At most 1500 points per condition are drawn.`}>
+              <div className="grid gap-4 sm:grid-cols-2 xl:grid-cols-4">{view.endpoints.map((c) => <EndpointChart key={c.condition} cloud={c} />)}</div>
+            </Figure>
+            <div className="card overflow-x-auto"><ConditionTable analysis={a} /></div>
+          </section>
+          <section className="card space-y-4 overflow-x-auto" aria-labelledby="stats-title">
+            <h2 id="stats-title">Statistics</h2>
+            <AnovaTable rows={a.anova} caption="Repeated-measures ANOVA of TP over participants × conditions; factorial rows test each effect against its own effect × participant interaction; Greenhouse–Geisser corrected p beside the uncorrected one." />
+            {a.anovaErrorRate && <AnovaTable rows={a.anovaErrorRate} caption="The same ANOVA on error rates (read with the Friedman test below: rates are not normal)." />}
+            {a.friedman && <p className="text-sm">Friedman test on error rates: χ² = {fmt(a.friedman.statistic)}, df = {a.friedman.df}, p = {fmt(a.friedman.p, 3)}.</p>}
+            <PosthocTable rows={a.posthoc} />
+          </section>
+          <section className="card space-y-2" aria-labelledby="excl-title">
+            <h2 id="excl-title">Exclusions</h2>
+            <ul className="list-disc pl-5 text-sm" data-testid="exclusions">
+              <li>Rule: {view.exclusions.rule}.</li>
+              <li>{view.exclusions.removed} of {a.movements} movements removed as misfires: {view.exclusions.short} too short (distance along the axis below A/2), {view.exclusions.far} too far (more than 2W from the target centre).</li>
+              <li>{view.exclusions.sequencesDropped.length} sequence(s) left out for keeping fewer than 2 movements.</li>
+              <li>{view.exclusions.missing?.participantsExcluded ?? 0} participant(s) left out of the ANOVA and tests for lacking a condition{view.exclusions.missing && view.exclusions.missing.cells.length > 0 ? `: ${[...new Set(view.exclusions.missing.cells.map((c) => c.participant))].join(", ")}` : ""}.</li>
+              <li>{view.exclusions.withdrawn.length} withdrawn participant(s) left out entirely{view.exclusions.withdrawn.length ? `: ${view.exclusions.withdrawn.join(", ")}` : ""}.</li>
+              {a.notes.map((n) => <li key={n}>{n}</li>)}
+            </ul>
+          </section>
+        </>
+      )}
+      {view && (
+        <section className="card space-y-2 overflow-x-auto" aria-labelledby="people-title">
+          <h2 id="people-title">Participants</h2>
+          <table>
+            <thead><tr><th>code</th><th>status</th><th>row</th><th>movements</th></tr></thead>
+            <tbody>
+              {view.participants.map((p) => (
+                <tr key={p.id}><td><Link href={`/studies/${studyId}/participants/${p.id}`}>{p.code}</Link></td><td>{p.status.replace("_", " ")}</td><td>{p.cbRow === null ? "–" : p.cbRow + 1}</td><td>{p.movements}</td></tr>
+              ))}
+            </tbody>
+          </table>
+        </section>
+      )}
+      <ExportPanel studyId={studyId} />
+    </div>
+  );
+}

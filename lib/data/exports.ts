@@ -1,0 +1,221 @@
+import { randomBytes } from "node:crypto";
+import { mkdir } from "node:fs/promises";
+import { isAbsolute, join, resolve } from "node:path";
+import type { Knex } from "knex";
+import type { Queryable } from "@/lib/db";
+import { appendAudit } from "@/lib/data/audit";
+import { fetchStudyDesign, TRIAL_RECORD_COLUMNS } from "@/lib/data/results";
+import { env } from "@/lib/env";
+import {
+  exportOptionsSchema, randomPseudonyms, stablePseudonym, writeArchive,
+  type ArchiveSource, type ExportAnswer, type ExportOptions, type ExportParticipant, type ExportStream,
+} from "@/lib/export";
+import type { TrialRecord } from "@/lib/results";
+
+export type ExportStatus = "queued" | "running" | "done" | "failed";
+
+/** An export job as pages and the API see it (the file path stays on the server). */
+export type ExportJob = {
+  id: number;
+  studyId: number;
+  status: ExportStatus;
+  progress: number;
+  stage: string;
+  options: ExportOptions;
+  sha256: string | null;
+  sizeBytes: number | null;
+  kAnonymity: number | null;
+  warnings: string[];
+  error: string | null;
+  createdBy: string;
+  createdAt: string;
+  startedAt: string | null;
+  finishedAt: string | null;
+  fileName: string | null;
+};
+
+type ExportRow = {
+  id: number; study_id: number; status: ExportStatus; progress: number; stage: string; options: unknown; path: string | null;
+  sha256: string | null; size_bytes: number | string | null; k_anonymity: number | null; warnings: unknown; error: string | null;
+  created_by: number; created_at: Date; started_at: Date | null; finished_at: Date | null; creator_name?: string;
+};
+
+const parseJson = (v: unknown): unknown => (typeof v === "string" ? JSON.parse(v) : v);
+const iso = (d: Date | null): string | null => (d ? d.toISOString() : null);
+
+function toExportJob(r: ExportRow): ExportJob {
+  return {
+    id: r.id, studyId: r.study_id, status: r.status, progress: Number(r.progress), stage: r.stage,
+    options: exportOptionsSchema.parse(parseJson(r.options) ?? {}),
+    sha256: r.sha256, sizeBytes: r.size_bytes === null ? null : Number(r.size_bytes), kAnonymity: r.k_anonymity,
+    warnings: (parseJson(r.warnings) as string[] | null) ?? [], error: r.error, createdBy: r.creator_name ?? String(r.created_by),
+    createdAt: r.created_at.toISOString(), startedAt: iso(r.started_at), finishedAt: iso(r.finished_at),
+    fileName: r.path ? `study-${r.study_id}-export-${r.id}.zip` : null,
+  };
+}
+
+const jobQuery = (q: Queryable) => q("exports as e").join("users as u", "u.id", "e.created_by").select("e.*", "u.name as creator_name");
+
+export async function insertExportJob(q: Queryable, job: { studyId: number; options: ExportOptions; createdBy: number }): Promise<number> {
+  const [id] = await q("exports").insert({ study_id: job.studyId, options: JSON.stringify(job.options), created_by: job.createdBy, stage: "waiting" });
+  return Number(id);
+}
+
+export async function fetchExportJob(q: Queryable, id: number): Promise<ExportJob | undefined> {
+  const row = (await jobQuery(q).where("e.id", id).first()) as ExportRow | undefined;
+  return row ? toExportJob(row) : undefined;
+}
+
+/** The job's archive file on disk (absolute), or null while it is not done. */
+export async function fetchExportFile(q: Queryable, id: number): Promise<{ studyId: number; path: string | null; status: ExportStatus } | undefined> {
+  const row = await q("exports").where({ id }).first<{ study_id: number; path: string | null; status: ExportStatus } | undefined>("study_id", "path", "status");
+  if (!row) return undefined;
+  return { studyId: row.study_id, status: row.status, path: row.path && row.status === "done" ? join(exportsRoot(), row.path) : null };
+}
+
+export async function listExportJobs(q: Queryable, studyId: number): Promise<ExportJob[]> {
+  const rows = (await jobQuery(q).where("e.study_id", studyId).orderBy("e.id", "desc").limit(50)) as ExportRow[];
+  return rows.map(toExportJob);
+}
+
+function exportsRoot(): string {
+  return isAbsolute(env.EXPORTS_DIR) ? env.EXPORTS_DIR : resolve(process.cwd(), env.EXPORTS_DIR);
+}
+
+/** The study's HMAC key for stable pseudonyms, created on first use. */
+export async function pseudonymSecret(q: Queryable, studyId: number): Promise<string> {
+  const row = await q("study_pseudonym_keys").where({ study_id: studyId }).first<{ secret_hex: string } | undefined>("secret_hex");
+  if (row) return row.secret_hex;
+  await q("study_pseudonym_keys").insert({ study_id: studyId, secret_hex: randomBytes(32).toString("hex") }).onConflict("study_id").ignore();
+  const again = await q("study_pseudonym_keys").where({ study_id: studyId }).first<{ secret_hex: string }>("secret_hex");
+  return again!.secret_hex;
+}
+
+/**
+ * The archive source of a study, read from the database: participants who have consented and not
+ * withdrawn; movements and streams paged by id, so nothing holds the whole study. Only the
+ * columns the archive may carry are read (no codes, tokens, contacts, typed names or devices).
+ */
+export async function databaseArchiveSource(db: Knex, studyId: number): Promise<ArchiveSource> {
+  const study = await db("studies").where({ id: studyId }).first<{ id: number; title: string; created_at: Date }>("id", "title", "created_at");
+  const design = await fetchStudyDesign(db, studyId);
+  if (!study || !design) throw new Error("databaseArchiveSource requires a study with a design");
+  const people = await db("participants")
+    .where({ study_id: studyId })
+    .whereNotIn("status", ["invited", "withdrawn"])
+    .orderBy("id")
+    .select<{ id: number; status: string; cb_row: number | null; condition_order: unknown; between_levels: unknown; started_at: Date | null; completed_at: Date | null }[]>(
+      "id", "status", "cb_row", "condition_order", "between_levels", "started_at", "completed_at",
+    );
+  const ids = people.map((p) => p.id);
+  const finals = ids.length
+    ? await db("questionnaire_answers").whereIn("participant_id", ids).andWhere({ condition: "" }).select<{ participant_id: number; item_id: string; value_int: number | null; value_text: string | null }[]>("participant_id", "item_id", "value_int", "value_text")
+    : [];
+  const participants: ExportParticipant[] = people.map((p) => ({
+    id: p.id, status: p.status, cbRow: p.cb_row,
+    conditionOrder: (parseJson(p.condition_order) as string[] | null) ?? [],
+    betweenLevels: (parseJson(p.between_levels) as Record<string, string> | null) ?? {},
+    startedAt: p.started_at, completedAt: p.completed_at,
+    final: Object.fromEntries(finals.filter((f) => f.participant_id === p.id).map((f) => [f.item_id, f.value_text ?? f.value_int])),
+  }));
+  const consentVersions = await db("consent_versions").where({ study_id: studyId }).whereIn("status", ["submitted", "approved"]).orderBy("version")
+    .select<{ version: number; sha256: string | null; status: string; body_md: string }[]>("version", "sha256", "status", "body_md");
+  const countOf = async (table: string, extra: Record<string, unknown> = {}) =>
+    ids.length ? Number(((await db(table).whereIn("participant_id", ids).andWhere(extra).count({ n: "*" }).first()) as { n: number | string }).n) : 0;
+  const page = 5000;
+  return {
+    study: { id: study.id, title: study.title, design, createdAt: study.created_at },
+    consentVersions: consentVersions.map((v) => ({ version: v.version, sha256: v.sha256, status: v.status, bodyMd: v.body_md })),
+    participants,
+    counts: { trials: await countOf("trials", { practice: false }), streams: await countOf("sequence_streams") },
+    async *trials(): AsyncIterable<TrialRecord> {
+      if (ids.length === 0) return;
+      let last = 0;
+      for (;;) {
+        const rows = (await db("trials").whereIn("participant_id", ids).andWhere("practice", false).andWhere("id", ">", last).orderBy("id").limit(page).select("id", ...TRIAL_RECORD_COLUMNS)) as (TrialRecord & { id: number })[];
+        for (const r of rows) yield r;
+        if (rows.length < page) return;
+        last = Number(rows.at(-1)!.id);
+      }
+    },
+    async *answers(): AsyncIterable<ExportAnswer> {
+      if (ids.length === 0) return;
+      const rows = await db("questionnaire_answers").whereIn("participant_id", ids).orderBy("id")
+        .select<{ participant_id: number; condition: string; item_id: string; value_int: number | null; value_text: string | null; answered_at: Date }[]>("participant_id", "condition", "item_id", "value_int", "value_text", "answered_at");
+      for (const a of rows) yield { participantId: a.participant_id, condition: a.condition, itemId: a.item_id, valueInt: a.value_int, valueText: a.value_text, answeredAt: a.answered_at };
+    },
+    async *streams(): AsyncIterable<ExportStream> {
+      if (ids.length === 0) return;
+      const metas = await db("sequence_streams").whereIn("participant_id", ids).orderBy("id")
+        .select<{ id: number; participant_id: number; condition: string; condition_index: number; block: number; sequence: number; practice: number | boolean }[]>("id", "participant_id", "condition", "condition_index", "block", "sequence", "practice");
+      for (const m of metas) {
+        yield {
+          participantId: m.participant_id, condition: m.condition, conditionIndex: m.condition_index, block: m.block, sequence: m.sequence, practice: Boolean(m.practice),
+          read: async () => (await db("sequence_streams").where({ id: m.id }).first<{ stream_gz: Buffer | null } | undefined>("stream_gz"))?.stream_gz ?? null,
+        };
+      }
+    },
+  };
+}
+
+/**
+ * Runs one export job to the end (runExportJob): writes the archive under EXPORTS_DIR, keeps the
+ * job's progress in the database (at most every 300 ms), and records the result or the error.
+ * Started without awaiting by the route handler; never throws.
+ */
+export async function runExportJob(db: Knex, jobId: number, actor: { id: number; label: string }): Promise<void> {
+  const job = await fetchExportJob(db, jobId);
+  if (!job) return;
+  try {
+    await db("exports").where({ id: jobId }).update({ status: "running", started_at: new Date(), stage: "starting" });
+    const source = await databaseArchiveSource(db, job.studyId);
+    const ids = source.participants.map((p) => p.id);
+    let pseudonyms: Map<number, string>;
+    if (job.options.pseudonyms === "stable") {
+      const secret = await pseudonymSecret(db, job.studyId);
+      pseudonyms = new Map(ids.map((id) => [id, stablePseudonym(secret, id)]));
+    } else pseudonyms = randomPseudonyms(ids);
+    const relative = join(`study-${job.studyId}`, `export-${jobId}-${randomBytes(6).toString("hex")}.zip`);
+    const absolute = join(exportsRoot(), relative);
+    await mkdir(join(exportsRoot(), `study-${job.studyId}`), { recursive: true });
+    let lastWrite = 0;
+    let pending: Promise<unknown> = Promise.resolve();
+    const summary = await writeArchive(source, job.options, pseudonyms, absolute, (fraction, stage) => {
+      const now = Date.now();
+      if (now - lastWrite < 300 && fraction < 1) return;
+      lastWrite = now;
+      pending = pending.then(() => db("exports").where({ id: jobId }).update({ progress: Math.min(0.99, fraction), stage })).catch(() => {});
+    });
+    await pending;
+    await db("exports").where({ id: jobId }).update({
+      status: "done", progress: 1, stage: "done", path: relative, sha256: summary.sha256, size_bytes: summary.sizeBytes,
+      k_anonymity: summary.kAnonymity.k, warnings: JSON.stringify(summary.warnings), finished_at: new Date(),
+    });
+    await appendAudit(db, {
+      actorUserId: actor.id, actorLabel: actor.label, action: "export.finish", studyId: job.studyId,
+      details: { exportId: jobId, sha256: summary.sha256, sizeBytes: summary.sizeBytes, files: summary.files.length, kAnonymity: summary.kAnonymity.k, options: job.options },
+    });
+  } catch (err) {
+    console.error(`export ${jobId} failed`, err);
+    await db("exports").where({ id: jobId }).update({ status: "failed", stage: "failed", error: (err as Error).message.slice(0, 2000), finished_at: new Date() }).catch(() => {});
+    await appendAudit(db, { actorUserId: actor.id, actorLabel: actor.label, action: "export.fail", studyId: job.studyId, details: { exportId: jobId } }).catch(() => {});
+  }
+}
+
+/** The identified consent register of a study: one row per consent record. */
+export async function fetchConsentRegister(q: Queryable, studyId: number): Promise<
+  { participantCode: string; status: string; version: number; versionHash: string; documentHash: string | null; signedAt: Date; withdrawnAt: Date | null; typedName: string | null; agreed: string[] }[]
+> {
+  const rows = await q("consent_records as r")
+    .join("participants as p", "p.id", "r.participant_id")
+    .join("consent_versions as v", "v.id", "r.consent_version_id")
+    .where("p.study_id", studyId)
+    .orderBy("r.signed_at")
+    .select<{ code: string; status: string; version: number; version_hash: string; sha256: string | null; signed_at: Date; withdrawn_at: Date | null; p_withdrawn: Date | null; typed_name: string | null; agreed: unknown }[]>(
+      "p.code", "p.status", "v.version", "r.version_hash", "v.sha256", "r.signed_at", "r.withdrawn_at", "p.withdrawn_at as p_withdrawn", "r.typed_name", "r.agreed",
+    );
+  return rows.map((r) => ({
+    participantCode: r.code, status: r.status, version: r.version, versionHash: r.version_hash, documentHash: r.sha256,
+    signedAt: r.signed_at, withdrawnAt: r.withdrawn_at ?? r.p_withdrawn, typedName: r.typed_name, agreed: (parseJson(r.agreed) as string[] | null) ?? [],
+  }));
+}
