@@ -75,7 +75,9 @@ test("a 2 × 2 study from design to invitations, with review and a verified audi
   // Submit.
   await researcher.getByRole("link", { name: "Review", exact: true }).click();
   await researcher.getByRole("button", { name: "Submit for review" }).click();
-  await expect(researcher.getByRole("status")).toHaveText("Submitted for review.");
+  // The button goes once the page refreshes, so check the outcome rather than its message.
+  await expect(researcher.getByRole("cell", { name: "waiting", exact: true })).toBeVisible();
+  await expect(researcher.getByText("In review", { exact: true })).toBeVisible();
 
   // The reviewer approves from the queue.
   const reviewer = await (await browser.newContext()).newPage();
@@ -85,7 +87,8 @@ test("a 2 × 2 study from design to invitations, with review and a verified audi
   await expect(reviewer.getByRole("link", { name: "approval-letter.pdf" })).toBeVisible();
   await expect(reviewer.getByRole("link", { name: "Consent register (CSV)" })).toHaveAttribute("href", `/api/studies/${studyId}/consent-register`);
   await reviewer.getByRole("button", { name: "Approve" }).click();
-  await expect(reviewer.getByRole("status")).toHaveText("Approved.");
+  await expect(reviewer.getByText("No submission is waiting for a decision.")).toBeVisible();
+  await expect(reviewer.getByRole("cell", { name: "approved", exact: true })).toBeVisible();
 
   // The researcher opens recruitment and sends three invitations.
   await researcher.getByRole("link", { name: "Recruitment" }).click();
