@@ -45,8 +45,8 @@ test.describe("role matrix", () => {
 
   for (const [file, entry] of Object.entries(MATRIX)) {
     if (!("calls" in entry)) continue;
-    for (const call of entry.calls) {
-      test(`${call.method} ${typeof call.path === "string" ? call.path : file}: anonymous 401, wrong role 403, right role 2xx`, async () => {
+    for (const [i, call] of entry.calls.entries()) {
+      test(`${call.method} ${typeof call.path === "string" ? call.path : file} (#${i + 1}): anonymous 401, wrong role 403, right role 2xx`, async () => {
         const path = typeof call.path === "string" ? call.path : await call.path();
         for (const who of ["anonymous", "admin", "researcher", "reviewer"] as const) {
           const res = await clients.get(who)!.fetch(path, { method: call.method, data: call.body?.(), multipart: call.multipart?.() });
