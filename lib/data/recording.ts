@@ -26,7 +26,7 @@ export function decodeStream(batch: SequenceBatch): Buffer {
   let lines = 0;
   for (let i = 0; i < csv.length; i++) if (csv[i] === 0x0a) lines++;
   if (csv.length > 0 && csv[csv.length - 1] !== 0x0a) lines++;
-  if (!csv.subarray(0, 24).toString("utf8").startsWith("t_ms,gyro_x,gyro_y,gyro_z")) throw unprocessable("stream: the header must start with t_ms,gyro_x,gyro_y,gyro_z");
+  if (!csv.subarray(0, 64).toString("utf8").startsWith("t_ms,gyro_x,gyro_y,gyro_z")) throw unprocessable("stream: the header must start with t_ms,gyro_x,gyro_y,gyro_z");
   if (lines - 1 !== batch.stream.sampleCount) throw unprocessable(`stream: ${lines - 1} samples, but sampleCount says ${batch.stream.sampleCount}`);
   return gz;
 }
@@ -50,7 +50,7 @@ export async function ingestSequenceBatch(db: Knex, ctx: SessionContext, batch: 
   const gz = decodeStream(batch);
   try {
     return await db.transaction(async (trx) => {
-      const current = await trx<ParticipantRow>("participants").where({ id: p.id }).forShare().first("status");
+      const current = await trx<ParticipantRow>("participants").where({ id: p.id }).forUpdate().first("status");
       if (!current || current.status === "withdrawn") throw withdrawnError();
       const existing = await trx("sequence_streams").where({ participant_id: p.id, upload_key: batch.key }).first("id");
       if (existing) return { duplicate: true, movements: 0 };

@@ -27,7 +27,7 @@ export function pixelsPerMmFromCard(cardWidthPx: number): number {
  * the blind spot; the mean of the repeats, s (mm on the screen), gives the distance
  * d = s / tan(13.5°). Source: Li et al. 2020, Sci. Rep. 10:904 (virtual chinrest). Cost: O(k).
  * @throws Error "viewingDistanceFromBlindSpot requires at least one distance" / "… a positive scale".
- * @example viewingDistanceFromBlindSpot([540], 4) // 562.4 (mm; 135 mm / tan 13.5°)
+ * @example viewingDistanceFromBlindSpot([540], 4) // 562.3 (mm; 135 mm / tan 13.5°)
  */
 export function viewingDistanceFromBlindSpot(distancesPx: readonly number[], pixelsPerMm: number): number {
   if (distancesPx.length === 0) throw new Error("viewingDistanceFromBlindSpot requires at least one distance");
