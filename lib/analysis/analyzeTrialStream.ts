@@ -9,10 +9,12 @@ import { TrialAccumulator } from "./trialAccumulator";
 export interface StreamAnalysisOptions extends AnalysisOptionsInput {
   /** Legacy table without coordinates: widths from error rates. */
   legacy?: boolean;
+  /** Which CSV reader (see forEachTrialRow): "auto" (default, fast path for plain lines) or "csv-parse". */
+  parser?: "auto" | "csv-parse";
 }
 
 /**
- * Streams a trial-table CSV (csv-parse) straight into the analysis without keeping rows: the entry
+ * Streams a trial-table CSV (forEachTrialRow) straight into the analysis without keeping rows: the entry
  * point for uploads (give `file` the upload's name so errors read `NAME:LINE:COLUMN: message`).
  *
  * Cost: O(bytes); memory O(sequences).
@@ -24,13 +26,13 @@ export async function analyzeTrialStream(
   options: StreamAnalysisOptions = {},
   paths?: ReadonlyMap<string, readonly Point[]>,
 ): Promise<AnalysisResult> {
-  const { legacy, ...rest } = options;
+  const { legacy, parser, ...rest } = options;
   const opts = analysisOptionsSchema.parse(rest);
   const acc = new TrialAccumulator(opts, paths);
   if (legacy === true) {
-    await forEachTrialRow(input, { file: opts.file, legacy: true }, (row) => acc.addLegacy(row));
+    await forEachTrialRow(input, { file: opts.file, legacy: true, parser }, (row) => acc.addLegacy(row));
     return buildResult(acc.states.values(), opts, "errorRate");
   }
-  await forEachTrialRow(input, { file: opts.file, legacy: false }, (row) => acc.add(row));
+  await forEachTrialRow(input, { file: opts.file, legacy: false, parser }, (row) => acc.add(row));
   return buildResult(acc.states.values(), opts, "effective", acc.pathMovements);
 }
