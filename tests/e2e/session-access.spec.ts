@@ -1,9 +1,8 @@
 import { randomBytes } from "node:crypto";
-import { gzipSync } from "node:zlib";
 import { expect, request, test, type APIRequestContext } from "@playwright/test";
 import type { Knex } from "knex";
-import { formatSampleCsv } from "../../lib/motion/csv";
-import { planSession, sequenceLayout, uploadKey, type PlannedSequence, type SequenceBatch, type SessionState } from "../../lib/runner";
+import { planSession, type SessionState } from "../../lib/runner";
+import { batchFor as batchForDesign } from "./fixtures/session-batch";
 import { studyDesignSchema } from "../../lib/study/design";
 import { apiAsRole, baseURL } from "./helpers";
 import { createSessionStudy, fixtureDb, motionDesign, type SessionFixture } from "./fixtures/session-study";
@@ -35,21 +34,6 @@ async function consent(token: string): Promise<SessionState> {
   return (await (await anon.get(`/api/session/${token}`)).json()) as SessionState;
 }
 
-function batchFor(participantId: number, s: PlannedSequence): SequenceBatch {
-  const layout = sequenceLayout("ring", design.task.targetsPerRing, s.amplitude, s.width);
-  const movements = layout.order.slice(1).map((to, i) => {
-    const from = layout.order[i]!;
-    return { trial: i + 1, from_x: from.x, from_y: from.y, to_x: to.x, to_y: to.y, start_x: from.x + 1, start_y: from.y, end_x: to.x + 1, end_y: to.y, time_ms: 700, hit: 1 as const };
-  });
-  const samples = Array.from({ length: 120 }, (_, k) => ({ tMs: k * 16.7, gyroX: 0.1, gyroY: -0.2, gyroZ: 0 }));
-  return {
-    key: uploadKey(participantId, s), practice: s.practice, block: s.block, conditionIndex: s.conditionIndex, condition: s.condition, sequence: s.sequence,
-    unit: "px", amplitude: s.amplitude, width: s.width, movements,
-    stream: { gzipBase64: gzipSync(formatSampleCsv(samples)).toString("base64"), sampleCount: samples.length },
-    quality: { sampleRateHz: 60, jitterSdMs: 0.5, gaps: 0, droppedSamples: 0, frameP99Ms: 1 },
-  };
-}
-
 test("a token reaches only its own session; unknown tokens are 404; staff cookies are no substitute", async () => {
   const [a, b] = fx.participants;
   const stateA = (await (await anon.get(`/api/session/${a!.token}`)).json()) as SessionState;
@@ -77,6 +61,7 @@ test("uploads: idempotent by key, 422 for malformed or implausible batches, 410 
   const stateB = await consent(b!.token);
   expect(stateA.order).not.toBeNull();
   const planA = planSession(design, stateA.order!, stateA.planSeed!);
+  const batchFor = (id: number, s: Parameters<typeof batchForDesign>[2]) => batchForDesign(design, id, s);
   const first = batchFor(a!.id, planA[0]!);
 
   const put = (token: string, data: unknown) => anon.post(`/api/session/${token}/sequences`, { data });

@@ -1,0 +1,90 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { seedDemo } from "@/db/seeds/demo";
+import { db } from "@/lib/db";
+import { AppError } from "@/lib/errors";
+import { fetchSessionByToken, recordConsent, withdrawParticipant, planOf, type SessionContext } from "@/lib/data/participants";
+import { ingestSequenceBatch } from "@/lib/data/recording";
+import { studyDesignSchema } from "@/lib/study/design";
+import { verifyAuditChain } from "@/lib/data/audit";
+import { createSessionStudy, motionDesign, touchDesign, type SessionFixture } from "../e2e/fixtures/session-study";
+import { batchFor } from "../e2e/fixtures/session-batch";
+
+// The ingest data functions against MariaDB: idempotent by upload key (also under concurrent
+// repeats), refusal after withdrawal, erasure by the study's rule, the audit chain intact.
+
+let fx: SessionFixture;
+let keep: SessionFixture;
+const design = studyDesignSchema.parse(motionDesign);
+
+async function consented(token: string): Promise<SessionContext> {
+  const ctx = (await fetchSessionByToken(db, token))!;
+  await recordConsent(db, ctx, { consentVersionId: fx.consentVersionId, versionHash: fx.consentHash, agreed: ["s1", "s2", "s3"], typedName: "Robin Example", screenShortSidePx: 700 }, "Mozilla/5.0 (X11; Linux x86_64) Chrome/140");
+  return (await fetchSessionByToken(db, token))!;
+}
+
+async function status(p: Promise<unknown>): Promise<number> {
+  try {
+    await p;
+    return 200;
+  } catch (e) {
+    if (e instanceof AppError) return e.status;
+    throw e;
+  }
+}
+
+beforeAll(async () => {
+  await seedDemo(db);
+  fx = await createSessionStudy(db, "Ingest test", motionDesign, 3);
+  keep = await createSessionStudy(db, "Ingest keep-data test", touchDesign, 1);
+});
+afterAll(() => db.destroy());
+
+describe("ingestSequenceBatch", () => {
+  it("stores a sequence once, even when the same key arrives many times at once", async () => {
+    const ctx = await consented(fx.participants[0]!.token);
+    const plan = planOf(ctx)!;
+    const batch = batchFor(design, ctx.participant.id, plan[0]!);
+    const results = await Promise.all(Array.from({ length: 8 }, () => ingestSequenceBatch(db, ctx, batch)));
+    expect(results.filter((r) => !r.duplicate)).toHaveLength(1);
+    expect(await db("trials").where({ participant_id: ctx.participant.id }).count({ n: "*" })).toEqual([{ n: 13 }]);
+    expect(await db("sequence_streams").where({ participant_id: ctx.participant.id }).count({ n: "*" })).toEqual([{ n: 1 }]);
+    const row = await db("participants").where({ id: ctx.participant.id }).first();
+    expect(row.status).toBe("in_progress");
+  });
+
+  it("refuses an implausible batch (422) and a session without consent (409)", async () => {
+    const ctx = await consented(fx.participants[1]!.token);
+    const plan = planOf(ctx)!;
+    const batch = batchFor(design, ctx.participant.id, plan[1]!);
+    expect(await status(ingestSequenceBatch(db, ctx, { ...batch, amplitude: 299 }))).toBe(422);
+    expect(await status(ingestSequenceBatch(db, ctx, { ...batch, stream: { ...batch.stream, sampleCount: 5 } }))).toBe(422);
+    const fresh = (await fetchSessionByToken(db, fx.participants[2]!.token))!;
+    expect(await status(ingestSequenceBatch(db, fresh, batch))).toBe(409);
+  });
+
+  it("after withdrawal refuses further uploads with 410 and erases earlier data when the study says so", async () => {
+    const ctx = (await fetchSessionByToken(db, fx.participants[1]!.token))!;
+    const plan = planOf(ctx)!;
+    expect((await ingestSequenceBatch(db, ctx, batchFor(design, ctx.participant.id, plan[1]!))).duplicate).toBe(false);
+    expect(await withdrawParticipant(db, ctx, "test")).toEqual({ erased: true });
+    const after = (await fetchSessionByToken(db, fx.participants[1]!.token))!;
+    expect(await status(ingestSequenceBatch(db, after, batchFor(design, ctx.participant.id, plan[2]!)))).toBe(410);
+    // even a request that read the session before the withdrawal is refused inside the transaction
+    expect(await status(ingestSequenceBatch(db, ctx, batchFor(design, ctx.participant.id, plan[2]!)))).toBe(410);
+    expect(await db("trials").where({ participant_id: ctx.participant.id }).count({ n: "*" })).toEqual([{ n: 0 }]);
+    expect((await db("consent_records").where({ participant_id: ctx.participant.id }).first()).withdrawn_at).not.toBeNull();
+    expect((await verifyAuditChain(db)).intact).toBe(true);
+  });
+
+  it("keeps earlier data on withdrawal when the study's rule says keep", async () => {
+    const ctx = (await fetchSessionByToken(db, keep.participants[0]!.token))!;
+    await recordConsent(db, ctx, { consentVersionId: keep.consentVersionId, versionHash: keep.consentHash, agreed: ["s1", "s2", "s3"], screenShortSidePx: 400 }, null);
+    const c2 = (await fetchSessionByToken(db, keep.participants[0]!.token))!;
+    const touch = studyDesignSchema.parse(touchDesign);
+    await ingestSequenceBatch(db, c2, batchFor(touch, c2.participant.id, planOf(c2)![0]!));
+    expect(await withdrawParticipant(db, c2)).toEqual({ erased: false });
+    expect(await db("trials").where({ participant_id: c2.participant.id }).count({ n: "*" })).toEqual([{ n: 9 }]);
+    const audit = await db("audit_log").where({ action: "participant.withdrawn", study_id: keep.studyId }).first();
+    expect(JSON.parse(typeof audit.details === "string" ? audit.details : JSON.stringify(audit.details)).erased).toBe(false);
+  });
+});
