@@ -22,13 +22,13 @@ import { ringTargets, ringVisitingOrder } from "../../lib/task";
 
 const dir = process.env.YAWPOINT_BENCH_DIR ?? "/tmp/yawpoint-bench-export";
 const participants = Number(process.env.YAWPOINT_BENCH_PARTICIPANTS ?? 100);
-const blocks = Number(process.env.YAWPOINT_BENCH_BLOCKS ?? 21); // 100 × 4 conditions × 9 A×W × 13 movements × 21 ≈ 0.98 M
+const blocks = Number(process.env.YAWPOINT_BENCH_BLOCKS ?? 14); // 100 × 6 conditions × 9 A×W × 13 movements × 14 ≈ 0.98 M
 const runs = Number(process.env.YAWPOINT_BENCH_RUNS ?? 3);
-const gen = { participants, blocks, techniques: ["motion", "stick"], gains: [2, 6], seed: 7 };
+const gen = { participants, blocks, techniques: ["motion", "stick"], gains: [2, 4, 6], seed: 7 };
 const design = studyDesignSchema.parse({
   factors: [
     { name: "technique", levels: [{ label: "motion", config: {} }, { label: "stick", config: {} }] },
-    { name: "gain", levels: [{ label: "2", config: {} }, { label: "6", config: {} }] },
+    { name: "gain", levels: [{ label: "2", config: {} }, { label: "4", config: {} }, { label: "6", config: {} }] },
   ],
   task: { amplitudes: [128, 256, 512], widths: [16, 32, 64], targetsPerRing: 13 },
   blocks,
@@ -110,10 +110,15 @@ function inputBytes(path: string): number {
 }
 
 if (process.argv[2] === "--child") {
+  if (process.env.YAWPOINT_BENCH_VERBOSE) process.stderr.write(`RSS at start: ${(process.memoryUsage.rss() / 1e6).toFixed(0)} MB\n`);
   const out = process.argv[3]!;
   const t0 = performance.now();
   const pseudonyms = new Map(Array.from({ length: participants }, (_, i) => [i + 1, `r-${String(i + 1).padStart(3, "0")}`]));
-  const s = await writeArchive(fileSource(), { pseudonyms: "random", includeStreams: true, includeDates: false, includeFreeText: false }, pseudonyms, out);
+  const peaks = new Map<string, number>();
+  const s = await writeArchive(fileSource(), { pseudonyms: "random", includeStreams: true, includeDates: false, includeFreeText: false }, pseudonyms, out, (_f, stage) => {
+    peaks.set(stage, Math.max(peaks.get(stage) ?? 0, process.memoryUsage.rss() / 1e6));
+  });
+  if (process.env.YAWPOINT_BENCH_VERBOSE) process.stderr.write(`RSS by stage (MB): ${[...peaks].map(([k, v]) => `${k} ${v.toFixed(0)}`).join(", ")}; heap ${(process.memoryUsage().heapUsed / 1e6).toFixed(0)} MB\n`);
   process.stdout.write(JSON.stringify({ seconds: (performance.now() - t0) / 1000, bytes: s.sizeBytes, movements: s.movements, streams: s.streams }) + "\n");
 } else {
   await prepare();

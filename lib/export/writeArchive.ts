@@ -12,6 +12,7 @@ import { analysisUnitOf } from "../results/analysisUnit";
 import { trialRowFromRecord } from "../results/trialRecord";
 import { conditionsOf } from "../study/design";
 import { formatTrialRow } from "../trials/toTrialCsv";
+import { batchCentralDirectory } from "./batchCentralDirectory";
 import { buildCodebook } from "./codebook";
 import { csvLine } from "./csvLine";
 import { buildDataPackage } from "./dataPackage";
@@ -68,7 +69,10 @@ function appendEntry(archive: Archiver, source: Readable | Buffer | string, name
     };
     archive.once("entry", onEntry);
     archive.once("error", onError);
-    archive.append(source, { name, store });
+    // Buffers and strings go in as streams: archiver writes a stored Buffer without waiting for
+    // the output to drain, so a fast source would pile up in memory; a stream is piped with backpressure.
+    const body = typeof source === "string" || Buffer.isBuffer(source) ? Readable.from([Buffer.from(source)]) : source;
+    archive.append(body, { name, store });
   });
 }
 
@@ -124,7 +128,7 @@ export async function writeArchive(
   const files: string[] = [];
   const warnings: string[] = [];
   const tmpPath = `${outPath}.part`;
-  const archive = new ZipArchive({ zlib: { level: 6 } });
+  const archive = batchCentralDirectory(new ZipArchive({ zlib: { level: 6 } }));
   const counter = new HashingCounter();
   const written = pipeline(archive, counter, createWriteStream(tmpPath));
   written.catch(() => {}); // awaited below; avoid an unhandled rejection while entries are appended
