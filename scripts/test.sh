@@ -25,6 +25,7 @@ set +e
 status=0
 npx tsc --noEmit -p . && echo "typecheck: ok" || status=1
 npx vitest run --reporter=default --reporter=json --outputFile=reports/vitest.json || status=1
+export NEXT_PUBLIC_YAWPOINT_TEST_SOURCES=1 # the simulated participant source, for the session browser tests only (npm start never sets it)
 NODE_ENV=production npx next build || status=1
 if [ -f .next/BUILD_ID ]; then
   npx playwright test || status=1

@@ -61,13 +61,27 @@ export function jsonColumn(value: unknown): unknown {
  */
 export async function fetchSessionByToken(q: Queryable, token: string): Promise<SessionContext | undefined> {
   if (!TOKEN_SHAPE.test(token)) return undefined;
-  const participant = await q<ParticipantRow>("participants").where({ token_hash: hashToken(token) }).first();
-  if (!participant) return undefined;
-  const study = await q("studies").where({ id: participant.study_id }).first<{ id: number; title: string; summary: string; status: string; design: unknown }>();
-  if (!study) return undefined;
-  const parsed = studyDesignSchema.safeParse(jsonColumn(study.design));
+  const row = await q("participants as p")
+    .join("studies as s", "s.id", "p.study_id")
+    .where("p.token_hash", hashToken(token))
+    .first<(ParticipantRow & { s_title: string; s_summary: string; s_status: string; s_design: unknown }) | undefined>("p.*", "s.title as s_title", "s.summary as s_summary", "s.status as s_status", "s.design as s_design");
+  if (!row) return undefined;
+  const { s_title, s_summary, s_status, s_design, ...participant } = row;
+  return { participant, study: { id: participant.study_id, title: s_title, summary: s_summary, status: s_status }, design: parseDesignCached(s_design) };
+}
+
+const designCache = new Map<string, StudyDesign>();
+
+/** Parses a stored design, remembering the last few by their text (uploads arrive many per second). */
+function parseDesignCached(raw: unknown): StudyDesign {
+  const text = typeof raw === "string" ? raw : JSON.stringify(raw ?? null);
+  const hit = designCache.get(text);
+  if (hit) return hit;
+  const parsed = studyDesignSchema.safeParse(jsonColumn(text));
   if (!parsed.success) throw conflict("The study's design is incomplete, so the session cannot run yet.");
-  return { participant, study: { id: study.id, title: study.title, summary: study.summary, status: study.status }, design: parsed.data };
+  if (designCache.size >= 64) designCache.delete(designCache.keys().next().value!);
+  designCache.set(text, parsed.data);
+  return parsed.data;
 }
 
 /** Like {@link fetchSessionByToken}, but a missing session is a 404. */

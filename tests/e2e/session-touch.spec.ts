@@ -31,10 +31,10 @@ test("a phone participant taps through a session in mm", async ({ page }) => {
   for (let i = 0; i < 200; i++) {
     if (await page.getByTestId("completion-code").isVisible()) break;
     if (await canvas.isVisible()) {
-      const box = (await canvas.boundingBox())!;
+      const frame = (await canvas.boundingBox())!;
       const x = Number(await canvas.getAttribute("data-next-x")), y = Number(await canvas.getAttribute("data-next-y"));
       if (Number.isFinite(x) && Number.isFinite(y) && x > 0) {
-        await page.touchscreen.tap(box.x + x, box.y + y);
+        await page.touchscreen.tap(frame.x + x, frame.y + y);
         await page.waitForTimeout(120);
         continue;
       }

@@ -1,0 +1,72 @@
+// npm run bench:ingest — sequence uploads from 50 concurrent simulated sessions on loopback.
+// Starts `next start` on the built app (NEXT_DIST_DIR, PORT), creates a study with 50 invited
+// participants directly in the database (DB_NAME), consents each through the API, then every
+// session sends its whole plan (34 sequences × 13 movements, a 10 s stream at 60 Hz each) one
+// batch after another, as the browser does, plus a repeat of every tenth batch (must be answered
+// duplicate). Bounded: 50 × 37 requests per round, 60 s cap. Three rounds; figures per round and
+// the median. Afterwards the database must hold every movement exactly once.
+// This is a harness (it needs the database to set up and to check), not domain logic.
+import { performance } from "node:perf_hooks";
+import { planSession, type SessionState } from "../../lib/runner";
+import { studyDesignSchema, type StudyDesignInput } from "../../lib/study/design";
+import { createSessionStudy, fixtureDb, motionDesign } from "../../tests/e2e/fixtures/session-study";
+import { batchFor } from "../../tests/e2e/fixtures/session-batch";
+import { median, quantile, startServer } from "../../tests/e2e/fixtures/session-server";
+
+const SESSIONS = 50, ROUNDS = 3, CAP_MS = 60_000;
+const benchDesign: StudyDesignInput = { ...motionDesign, blocks: 2, task: { ...motionDesign.task, amplitudes: [300, 200], widths: [30, 60], sequencesPerAW: 2 } };
+const design = studyDesignSchema.parse(benchDesign);
+
+async function round(url: string, db: ReturnType<typeof fixtureDb>, r: number) {
+  const fx = await createSessionStudy(db, `Ingest bench ${Date.now()} ${r}`, benchDesign, SESSIONS);
+  const sessions = await Promise.all(fx.participants.map(async (p) => {
+    const res = await fetch(`${url}/api/session/${p.token}/consent`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ consentVersionId: fx.consentVersionId, versionHash: fx.consentHash, agreed: ["s1", "s2", "s3"], typedName: "Bench Person", screenShortSidePx: 800 }) });
+    if (res.status !== 201) throw new Error(`consent: ${res.status} ${await res.text()}`);
+    const state = (await (await fetch(`${url}/api/session/${p.token}`)).json()) as SessionState;
+    const plan = planSession(design, state.order!, state.planSeed!);
+    const bodies = plan.map((s) => JSON.stringify(batchFor(design, p.id, s, 600)));
+    return { p, bodies: [...bodies, ...bodies.filter((_, i) => i % 10 === 0)] };
+  }));
+  const latencies: number[] = [];
+  let created = 0, duplicates = 0, failed = 0;
+  const t0 = performance.now();
+  await Promise.all(sessions.map(async ({ p, bodies }) => {
+    for (const body of bodies) {
+      if (performance.now() - t0 > CAP_MS) return;
+      const start = performance.now();
+      const res = await fetch(`${url}/api/session/${p.token}/sequences`, { method: "POST", headers: { "content-type": "application/json" }, body });
+      const json = (await res.json()) as { duplicate?: boolean };
+      latencies.push(performance.now() - start);
+      if (res.status === 201) created++;
+      else if (res.status === 200 && json.duplicate) duplicates++;
+      else failed++;
+    }
+  }));
+  const elapsed = (performance.now() - t0) / 1000;
+  const planned = sessions[0]!.bodies.length - Math.ceil((sessions[0]!.bodies.length) / 11);
+  const ids = fx.participants.map((p) => p.id);
+  const [{ n: trials }] = (await db("trials").whereIn("participant_id", ids).count({ n: "*" })) as [{ n: number }];
+  const [{ n: streams }] = (await db("sequence_streams").whereIn("participant_id", ids).count({ n: "*" })) as [{ n: number }];
+  const expectedBatches = SESSIONS * planned;
+  return {
+    requests: latencies.length, batchesPerS: latencies.length / elapsed, p50: quantile(latencies, 0.5), p99: quantile(latencies, 0.99),
+    created, duplicates, failed, lost: expectedBatches - Number(streams), duplicatedRows: Number(trials) - Number(streams) * design.task.targetsPerRing,
+    expectedBatches, elapsed,
+  };
+}
+
+const port = Number(process.env.PORT ?? 3204);
+const server = await startServer(port);
+const db = fixtureDb();
+try {
+  const results = [];
+  for (let r = 0; r < ROUNDS; r++) {
+    const x = await round(server.url, db, r);
+    results.push(x);
+    console.log(`round ${r + 1}: ${x.requests} requests in ${x.elapsed.toFixed(1)} s = ${x.batchesPerS.toFixed(0)} batches/s, p50 ${x.p50.toFixed(1)} ms, p99 ${x.p99.toFixed(1)} ms; stored ${x.created}, duplicates answered ${x.duplicates}, failed ${x.failed}; lost ${x.lost}, duplicated rows ${x.duplicatedRows}`);
+  }
+  console.log(`median of ${ROUNDS}: ${median(results.map((x) => x.batchesPerS)).toFixed(0)} batches/s, p99 ${median(results.map((x) => x.p99)).toFixed(1)} ms (target ≥ 200/s at p99 < 250 ms); lost ${results.reduce((a, x) => a + x.lost, 0)}, duplicated ${results.reduce((a, x) => a + x.duplicatedRows, 0)}`);
+} finally {
+  await db.destroy();
+  server.stop();
+}
