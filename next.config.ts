@@ -32,6 +32,9 @@ const config: NextConfig = {
   // Several checkouts' builds can sit side by side (NEXT_DIST_DIR); the default is .next.
   distDir: process.env.NEXT_DIST_DIR ?? ".next",
   poweredByHeader: false,
+  // The simulated participant source exists only in test builds (npm test sets this to 1); an
+  // explicit "0" lets the bundler drop it from every other build.
+  env: { NEXT_PUBLIC_YAWPOINT_TEST_SOURCES: process.env.NEXT_PUBLIC_YAWPOINT_TEST_SOURCES === "1" ? "1" : "0" },
   typedRoutes: false,
   // Type checking is its own stage of `npm test` (tsc --noEmit over the whole tree), so the build skips it.
   typescript: { ignoreBuildErrors: true },
