@@ -1,15 +1,15 @@
-import type { AnalysisResult } from "../analysis/result";
+import type { AnalysisResult, SequenceSummary } from "../analysis/result";
 
 type Row = Record<string, string | number | null>;
 const num = (x: number): number | null => (Number.isFinite(x) ? x : null);
 
-/** sequences.csv rows from an analysis (sequenceRows); keys are sequencesTableSpec's columns. Cost: O(sequences). @throws never. */
-export function sequenceRows(result: AnalysisResult): Row[] {
-  return result.sequences.map((s) => ({
+/** sequences.csv rows from an analysis's sequences, one at a time (sequenceRows); keys are sequencesTableSpec's columns. Cost: O(sequences). @throws never. */
+export function* sequenceRows(sequences: readonly SequenceSummary[]): Generator<Row> {
+  for (const s of sequences) yield ({
     participant: s.participant, condition: s.condition, block: s.block, sequence: s.sequence,
     amplitude: s.amplitude, width: s.width, id: num(s.id), n: s.n, excluded: s.excluded,
     error_rate: num(s.errorRate), ae: num(s.ae), sdx: num(s.sdx), we: num(s.we), ide: num(s.ide), mt: num(s.mt), tp: num(s.tp),
-  }));
+  });
 }
 
 /** cells.csv rows (cellRows), with the f_NAME levels of each condition. Cost: O(cells). @throws never. */

@@ -8,6 +8,7 @@ import { analysisOptionsSchema } from "../analysis/options";
 import { buildResult } from "../analysis/buildResult";
 import { TrialAccumulator } from "../analysis/trialAccumulator";
 import type { AnalysisResult } from "../analysis/result";
+import type { TrialRow } from "../trials/trialRow";
 import { analysisUnitOf } from "../results/analysisUnit";
 import { trialRowFromRecord } from "../results/trialRecord";
 import { conditionsOf } from "../study/design";
@@ -40,7 +41,8 @@ export interface ArchiveSummary {
   warnings: string[];
   movements: number;
   streams: number;
-  result: AnalysisResult;
+  /** Movements analysed and removed, conditions summarised. */
+  analysis: { movements: number; excluded: number; conditions: number };
 }
 
 export type ProgressListener = (fraction: number, stage: string) => void;
@@ -142,40 +144,51 @@ export async function writeArchive(
   };
 
   try {
-    // trials.csv, feeding the analysis as it goes
+    // trials.csv, feeding the analysis as it goes (the accumulator is dropped once the result is built)
     onProgress(0, "movements");
     const trialsSpec = trialsTableSpec(unit, factorNames);
-    const acc = new TrialAccumulator(analysisOptions);
     let movements = 0;
-    async function* trialChunks(): AsyncGenerator<string> {
-      let chunk = csvLine(trialsSpec.fields.map((f) => f.name)) + "\n";
-      let line = 1;
-      for await (const rec of source.trials()) {
-        const factors = levelsOf.get(rec.condition);
-        if (factors === undefined) throw new Error(`writeArchive: movement of unknown condition "${rec.condition}"`);
-        const row = trialRowFromRecord(rec, pseudonymOf(rec.participant_id), factors);
-        line++;
-        acc.add({ ...row, line });
-        chunk += formatTrialRow(row, factorNames) + "\n";
-        movements++;
-        if (chunk.length > 65_536) {
-          yield chunk;
-          chunk = "";
-          onProgress(trialWeight * Math.min(1, movements / Math.max(1, source.counts.trials)), "movements");
+    const analyse = async (): Promise<AnalysisResult> => {
+      const acc = new TrialAccumulator(analysisOptions);
+      async function* trialChunks(): AsyncGenerator<string> {
+        let chunk = csvLine(trialsSpec.fields.map((f) => f.name)) + "\n";
+        let line = 1;
+        for await (const rec of source.trials()) {
+          const factors = levelsOf.get(rec.condition);
+          if (factors === undefined) throw new Error(`writeArchive: movement of unknown condition "${rec.condition}"`);
+          const row: TrialRow & { line?: number } = trialRowFromRecord(rec, pseudonymOf(rec.participant_id), factors);
+          row.line = ++line;
+          acc.add(row);
+          chunk += formatTrialRow(row, factorNames) + "\n";
+          movements++;
+          if (chunk.length > 65_536) {
+            yield chunk;
+            chunk = "";
+            onProgress(trialWeight * Math.min(1, movements / Math.max(1, source.counts.trials)), "movements");
+          }
         }
+        if (chunk) yield chunk;
       }
-      if (chunk) yield chunk;
-    }
-    await add("trials.csv", Readable.from(trialChunks()));
-    const result = buildResult(acc.states.values(), analysisOptions, "effective");
-
-    onProgress(trialWeight, "summaries");
+      await add("trials.csv", Readable.from(trialChunks()));
+      return buildResult(acc.states.values(), analysisOptions, "effective");
+    };
     const seqSpec = sequencesTableSpec(unit);
-    await add("sequences.csv", Readable.from(csvChunks(seqSpec.fields.map((f) => f.name), sequenceRows(result))));
     const cellSpec = cellsTableSpec(unit, factorNames);
-    await add("cells.csv", Readable.from(csvChunks(cellSpec.fields.map((f) => f.name), cellRows(result, factorNames))));
     const condSpec = conditionsTableSpec(factorNames);
-    await add("conditions.csv", Readable.from(csvChunks(condSpec.fields.map((f) => f.name), conditionRows(result, factorNames))));
+    /** The summary tables; returns only the few figures the methods text needs, so the sequences can go. */
+    const summaries = async () => {
+      const result = await analyse();
+
+      onProgress(trialWeight, "summaries");
+      await add("sequences.csv", Readable.from(csvChunks(seqSpec.fields.map((f) => f.name), sequenceRows(result.sequences))));
+      await add("cells.csv", Readable.from(csvChunks(cellSpec.fields.map((f) => f.name), cellRows(result, factorNames))));
+      await add("conditions.csv", Readable.from(csvChunks(condSpec.fields.map((f) => f.name), conditionRows(result, factorNames))));
+      const ids = result.sequences.map((q) => q.id).filter(Number.isFinite);
+      const ides = result.sequences.map((q) => q.ide).filter(Number.isFinite);
+      const range = (xs: number[]): [number, number] | null => (xs.length ? [xs.reduce((m, x) => Math.min(m, x)), xs.reduce((m, x) => Math.max(m, x))] : null);
+      return { idRange: range(ids), ideRange: range(ides), movements: result.movements, excluded: result.excluded, sequencesDropped: result.sequencesDropped.length, conditions: result.conditions.length };
+    };
+    const facts = await summaries();
 
     // participants.csv and the k-anonymity check
     const partSpec = participantsTableSpec(betweenNames, options.includeDates);
@@ -248,8 +261,6 @@ export async function writeArchive(
     );
     await add("datapackage.json", JSON.stringify(descriptor, null, 2) + "\n");
     await add("codebook.md", buildCodebook(source.study.title, tables, notes, streamSection));
-    const ids = result.sequences.map((s) => s.id).filter(Number.isFinite);
-    const ides = result.sequences.map((s) => s.ide).filter(Number.isFinite);
     await add(
       "methods.md",
       buildMethods(source.study.title, design, {
@@ -257,11 +268,11 @@ export async function writeArchive(
         completed: source.participants.filter((p) => p.status === "completed").length,
         withdrawnLeftOut: 0,
         conditions: conditions.map((c) => c.label),
-        idRange: ids.length ? [Math.min(...ids), Math.max(...ids)] : null,
-        ideRange: ides.length ? [Math.min(...ides), Math.max(...ides)] : null,
-        movements: result.movements,
-        excluded: result.excluded,
-        sequencesDropped: result.sequencesDropped.length,
+        idRange: facts.idRange,
+        ideRange: facts.ideRange,
+        movements: facts.movements,
+        excluded: facts.excluded,
+        sequencesDropped: facts.sequencesDropped,
         start: analysisOptions.start,
         exclude: analysisOptions.exclude,
         unit: design.task.unit,
@@ -274,7 +285,7 @@ export async function writeArchive(
     await written;
     await rename(tmpPath, outPath);
     onProgress(1, "done");
-    return { sha256: counter.hash.digest("hex"), sizeBytes: counter.bytes, files, kAnonymity: k, warnings, movements, streams, result };
+    return { sha256: counter.hash.digest("hex"), sizeBytes: counter.bytes, files, kAnonymity: k, warnings, movements, streams, analysis: { movements: facts.movements, excluded: facts.excluded, conditions: facts.conditions } };
   } catch (err) {
     archive.abort();
     await written.catch(() => {});
