@@ -8,7 +8,7 @@ import { studyDesignSchema, CONDITION_SEPARATOR, type StudyDesign, type StudyDes
 import { designSummary, PLANNING } from "@/lib/study/summary/designSummary";
 import { orderPreview } from "@/lib/study/summary/orderPreview";
 import { apiSend, ApiError } from "./api";
-import { ConfigInput, NumberListInput } from "./ListInput";
+import { ConfigInput, NumberListInput, TextListInput } from "./ListInput";
 
 type Errors = FieldErrors<StudyDesignInput>;
 
@@ -73,6 +73,7 @@ export function DesignForm({ studyId, initial, readOnly }: { studyId: number; in
   const { register, control, handleSubmit, watch, setError, formState: { errors, isSubmitting } } = form;
   const factors = useFieldArray({ control, name: "factors" });
   const items = useFieldArray({ control, name: "perConditionItems" });
+  const between = useFieldArray({ control, name: "betweenFactors" });
   const values = watch();
   const parsed = useMemo(() => studyDesignSchema.safeParse(values), [values]);
   const crossing = useMemo(() => {
@@ -115,6 +116,22 @@ export function DesignForm({ studyId, initial, readOnly }: { studyId: number; in
           <Err errors={errors} path="factors" />
           {factors.fields.map((f, i) => <FactorEditor key={f.id} control={control} register={register} errors={errors} index={i} remove={() => factors.remove(i)} />)}
           <button type="button" className="btn-secondary" onClick={() => factors.append({ name: `factor_${factors.fields.length + 1}`, levels: [{ label: "", config: {} }] })}>Add factor</button>
+        </section>
+
+        <section className="space-y-2">
+          <h2>Between-subject factors (optional)</h2>
+          <p className="text-xs text-slate-600">Each participant gets one level, assigned in turn at consent; every condition above is still run by everyone.</p>
+          {between.fields.map((f, i) => (
+            <div key={f.id} className="grid gap-2 sm:grid-cols-[1fr_2fr_auto] sm:items-end">
+              <div><label htmlFor={`b${i}-name`}>Between factor {i + 1} name</label><input id={`b${i}-name`} className="input" {...register(`betweenFactors.${i}.name`)} /></div>
+              <Controller control={control} name={`betweenFactors.${i}.levels`} render={({ field }) => (
+                <div><label htmlFor={`b${i}-levels`}>Its levels, comma-separated</label><TextListInput id={`b${i}-levels`} value={field.value} onChange={field.onChange} /></div>
+              )} />
+              <button type="button" className="btn-secondary" onClick={() => between.remove(i)}>Remove</button>
+              <div className="sm:col-span-3"><Err errors={errors} path={`betweenFactors.${i}.name`} /><Err errors={errors} path={`betweenFactors.${i}.levels`} /></div>
+            </div>
+          ))}
+          <button type="button" className="btn-secondary" onClick={() => between.append({ name: `group_${between.fields.length + 1}`, levels: ["", ""] })}>Add between-subject factor</button>
         </section>
 
         <section className="space-y-2">

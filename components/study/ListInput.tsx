@@ -19,6 +19,22 @@ export function NumberListInput({ id, value, onChange, describedBy }: { id: stri
   );
 }
 
+/** A comma-separated list of labels ("novice, expert"), given to the form as string[]. */
+export function TextListInput({ id, value, onChange }: { id: string; value: string[] | undefined; onChange: (v: string[]) => void }) {
+  const [text, setText] = useState((value ?? []).join(", "));
+  return (
+    <input
+      id={id}
+      className="input"
+      value={text}
+      onChange={(e) => {
+        setText(e.target.value);
+        onChange(e.target.value.split(",").map((x) => x.trim()).filter((x) => x !== ""));
+      }}
+    />
+  );
+}
+
 const parseValue = (v: string): unknown => (v === "true" ? true : v === "false" ? false : v === "null" ? null : v.trim() !== "" && Number.isFinite(Number(v)) ? Number(v) : v);
 
 /** A level's transfer settings as "name=value, name=value" (e.g. "technique=motion" or "gain=6"). */
