@@ -1,8 +1,8 @@
 "use client";
 import { useCallback, useEffect, useMemo, useRef, useState } from "react";
-import { conditionConfig, conditionsOf, type StudyDesign } from "@/lib/study/design";
+import type { StudyDesign } from "@/lib/study/design";
 import type { TransferConfig } from "@/lib/motion/config";
-import { planSession } from "@/lib/runner/plan";
+import { planSequences } from "@/lib/runner/planCore";
 import { uploadKey } from "@/lib/runner/uploadKey";
 import { STAGES, advanceProgress, currentStep, initialProgress, progressFraction, type Progress } from "@/lib/runner/progress";
 import { trialUnit } from "@/lib/runner/calibration";
@@ -42,11 +42,11 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
   const uploaderRef = useRef<Uploader | null>(null);
   const providerRef = useRef<InputProvider | null>(null);
 
-  const conditions = useMemo(() => conditionsOf(design), [design]);
-  const configs = useMemo(() => conditions.map((c) => conditionConfig(design, c)), [design, conditions]);
+  // merged and validated on the server, so this page carries no schema code
+  const configs = st.configs;
   const techniques = useMemo(() => [...new Set(configs.map((c) => c.technique))], [configs]);
   const motion = techniques.some((t) => t !== "mouse" && t !== "touch" && t !== "stick");
-  const plan = useMemo(() => (st.order && st.planSeed !== null ? planSession(design, st.order, st.planSeed) : []), [design, st.order, st.planSeed]);
+  const plan = useMemo(() => (st.order && st.planSeed !== null ? planSequences(design, st.conditions, st.order, st.planSeed) : []), [design, st.conditions, st.order, st.planSeed]);
 
   const getProvider = useCallback(async (): Promise<InputProvider> => {
     if (providerRef.current) return providerRef.current;

@@ -1,10 +1,9 @@
 "use client";
 import { useEffect, useRef } from "react";
-import { gzipSync } from "fflate";
-import { createMotionEngine } from "@/lib/motion/engine";
+import { createMotionEngineFromValid } from "@/lib/motion/engineCore";
 import type { TransferConfig } from "@/lib/motion/config";
 import type { MotionSample } from "@/lib/motion/sample";
-import { formatSampleCsv } from "@/lib/motion/csv";
+import { sampleStreamCsv } from "./streamCsv";
 import { sampleRateReport } from "@/lib/motion/calibration/sampleRateReport";
 import type { Point } from "@/lib/task/point";
 import { sequenceLayout } from "@/lib/runner/geometry";
@@ -12,6 +11,7 @@ import { pixelsPerTaskUnit, type DisplayCalibration } from "@/lib/runner/calibra
 import { createSequenceRecorder, type RecordedMovement } from "@/lib/runner/sequenceRecorder";
 import { projectDirection } from "@/lib/runner/perspective";
 import type { SequenceQuality } from "@/lib/runner/batch";
+import { gzipText } from "./gzip";
 import type { InputProvider } from "./inputs";
 
 export interface TaskSetup {
@@ -70,7 +70,7 @@ export function TaskCanvas(props: { setup: TaskSetup; provider: InputProvider | 
     const view = setup.displayMode === "view";
     const layout = sequenceLayout(setup.type, setup.targetsPerRing, setup.amplitude, setup.width);
     const recorder = createSequenceRecorder(layout, setup.timeLimitMs);
-    const engine = pointerTechnique ? null : createMotionEngine({ ...setup.config, displayMode: setup.displayMode });
+    const engine = pointerTechnique ? null : createMotionEngineFromValid({ ...setup.config, displayMode: setup.displayMode });
     const scale = view ? 1 : pixelsPerTaskUnit(setup.unit, setup.amplitude, setup.calibration);
     const selectMask = 2 ** setup.selectButton;
     const samples: MotionSample[] = [];
@@ -112,8 +112,8 @@ export function TaskCanvas(props: { setup: TaskSetup; provider: InputProvider | 
       if (process.env.NEXT_PUBLIC_YAWPOINT_TEST_SOURCES === "1") {
         (window.__yawpointFrames ??= []).push({ workMs: Array.from(work.subarray(0, Math.min(frames, FRAME_LOG))), delivered, recorded: samples.length, engineDropped: engine?.dropped ?? 0 });
       }
-      const streamGzip = gzipSync(new TextEncoder().encode(formatSampleCsv(samples)), { level: 6 });
-      cbRef.current.onFinished({ movements: [...recorder.movements], samples, streamGzip, quality });
+      const movements = [...recorder.movements];
+      void gzipText(sampleStreamCsv(samples)).then((streamGzip) => cbRef.current.onFinished({ movements, samples, streamGzip, quality }));
     };
 
     const select = (tMs: number): void => {

@@ -22,11 +22,16 @@ try {
   const html = await (await fetch(`${server.url}/s/${token}`)).text();
   const srcs = [...html.matchAll(/<script[^>]+src="([^"]+)"/g)].map((m) => m[1]!);
   let raw = 0, gz = 0;
+  const files: Array<{ src: string; gz: number }> = [];
   for (const src of new Set(srcs)) {
     const body = Buffer.from(await (await fetch(new URL(src, server.url))).arrayBuffer());
+    const size = gzipSync(body, { level: 6 }).length;
     raw += body.length;
-    gz += gzipSync(body, { level: 6 }).length;
+    gz += size;
+    files.push({ src, gz: size });
   }
+  // the largest files first, so a regression points at its chunk
+  for (const f of files.sort((x, y) => y.gz - x.gz)) console.log(`  ${(f.gz / 1024).toFixed(1).padStart(6)} KB gzipped  ${f.src}`);
   const inline = [...html.matchAll(/<script(?![^>]*src=)[^>]*>([\s\S]*?)<\/script>/g)].reduce((a, m) => a + gzipSync(Buffer.from(m[1]!)).length, 0);
   console.log(`participant route /s/[token]: ${new Set(srcs).size} script files, ${(raw / 1024).toFixed(1)} KB raw, ${(gz / 1024).toFixed(1)} KB gzipped (+ ${(inline / 1024).toFixed(1)} KB gzipped inline); target ≤ 200 KB gzipped`);
 

@@ -3,7 +3,7 @@ import type { Queryable } from "@/lib/db";
 import { conflict, notFound, AppError, unprocessable } from "@/lib/errors";
 import { hashToken } from "@/lib/auth/tokens";
 import { appendAudit } from "@/lib/data/audit";
-import { studyDesignSchema, conditionsOf, type StudyDesign } from "@/lib/study/design";
+import { studyDesignSchema, conditionConfig, conditionsOf, type StudyDesign } from "@/lib/study/design";
 import { orderForParticipant } from "@/lib/study/counterbalance";
 import {
   deviceSummary, initialProgress, planSeedFor, planSession, progressSchema, qualityFlags, requiredStatementIds,
@@ -113,6 +113,18 @@ export async function fetchApprovedConsent(q: Queryable, studyId: number): Promi
   return q<ConsentVersionRow>("consent_versions").where({ study_id: studyId, status: "approved" }).whereNotNull("sha256").orderBy("version", "desc").first();
 }
 
+const configCache = new WeakMap<StudyDesign, Pick<SessionState, "conditions" | "configs">>();
+
+/** The design's condition labels and merged, validated configurations (once per parsed design). */
+function conditionsAndConfigs(design: StudyDesign): Pick<SessionState, "conditions" | "configs"> {
+  const hit = configCache.get(design);
+  if (hit) return hit;
+  const conditions = conditionsOf(design);
+  const value = { conditions: conditions.map((c) => c.label), configs: conditions.map((c) => conditionConfig(design, c)) };
+  configCache.set(design, value);
+  return value;
+}
+
 /** Everything the runner needs for this session (GET /api/session/[token]); nothing of other sessions. */
 export async function fetchSessionState(q: Queryable, ctx: SessionContext): Promise<SessionState> {
   const p = ctx.participant;
@@ -133,6 +145,7 @@ export async function fetchSessionState(q: Queryable, ctx: SessionContext): Prom
     status: p.status,
     study: { title: ctx.study.title, summary: ctx.study.summary, compensation: ctx.design.compensation },
     design: ctx.design,
+    ...conditionsAndConfigs(ctx.design),
     consent: consent ? { versionId: consent.id, version: consent.version, hash: consent.sha256!, body: consent.body_md } : null,
     order: orderOf(ctx),
     planSeed: planSeedFor(ctx.design.counterbalancing.seed, p.id),

@@ -1,5 +1,5 @@
 // Participant runner: pure logic shared by the browser session, the server and the tests.
-export { planSession, planSeedFor, type PlannedSequence } from "./plan";
+export { planSession, planSeedFor, planSequences, type PlannedSequence, type PlanTask } from "./plan";
 export { uploadKey } from "./uploadKey";
 export { STAGES, initialProgress, currentStep, advanceProgress, progressFraction, type Stage, type Progress, type RunnerStep } from "./progress";
 export { sequenceLayout, isInsideTarget, type SequenceLayout } from "./geometry";

@@ -1,19 +1,7 @@
-import { createSeededRandom } from "@/lib/motion/simulate/prng";
 import { conditionsOf, type StudyDesign } from "@/lib/study/design";
+import { planSequences, type PlannedSequence } from "./planCore";
 
-/** One sequence of a participant's session, in the order it runs. */
-export interface PlannedSequence {
-  practice: boolean;
-  /** Block number, from 1 (practice runs in block 1, before the condition's measured sequences). */
-  block: number;
-  conditionIndex: number;
-  condition: string;
-  /** From 1, unique within participant × condition × block (practice numbered separately). */
-  sequence: number;
-  /** Nominal amplitude A and width W, in the design's unit. */
-  amplitude: number;
-  width: number;
-}
+export { planSequences, type PlannedSequence, type PlanTask } from "./planCore";
 
 /**
  * A participant's session plan (planSession).
@@ -29,34 +17,7 @@ export interface PlannedSequence {
  * @example planSession(design, [1, 0], 7)[0] // { practice: true, block: 1, conditionIndex: 1, condition: "…", sequence: 1, amplitude: 300, width: 30 }
  */
 export function planSession(design: StudyDesign, order: readonly number[], seed: number): PlannedSequence[] {
-  const conditions = conditionsOf(design);
-  const sorted = [...order].sort((a, b) => a - b);
-  if (sorted.length !== conditions.length || sorted.some((v, i) => v !== i)) {
-    throw new Error("planSession requires an order that is a permutation of the condition indices");
-  }
-  const pairs: Array<{ amplitude: number; width: number }> = [];
-  for (const amplitude of design.task.amplitudes) for (const width of design.task.widths) pairs.push({ amplitude, width });
-  const rng = createSeededRandom(seed);
-  const plan: PlannedSequence[] = [];
-  for (let block = 1; block <= design.blocks; block++) {
-    for (const ci of order) {
-      const condition = conditions[ci]!;
-      if (block === 1) {
-        for (let p = 0; p < design.task.practiceSequences; p++) {
-          const pair = pairs[p % pairs.length]!;
-          plan.push({ practice: true, block, conditionIndex: ci, condition: condition.label, sequence: p + 1, ...pair });
-        }
-      }
-      const runs: Array<{ amplitude: number; width: number }> = [];
-      for (let r = 0; r < design.task.sequencesPerAW; r++) runs.push(...pairs);
-      for (let i = runs.length - 1; i > 0; i--) {
-        const j = Math.floor(rng.uniform() * (i + 1));
-        [runs[i], runs[j]] = [runs[j]!, runs[i]!];
-      }
-      runs.forEach((pair, i) => plan.push({ practice: false, block, conditionIndex: ci, condition: condition.label, sequence: i + 1, ...pair }));
-    }
-  }
-  return plan;
+  return planSequences(design, conditionsOf(design).map((c) => c.label), order, seed);
 }
 
 /**

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import type { TransferConfig } from "@/lib/motion/config";
 import { STAGES } from "./progress";
 
 /** Bodies of the session API (app/api/session/[token]/…), shared by the runner and the server. */
@@ -68,6 +69,10 @@ export interface SessionState {
   status: "invited" | "consented" | "in_progress" | "completed" | "withdrawn";
   study: { title: string; summary: string; compensation: string };
   design: unknown;
+  /** The design's condition labels, in crossing order (conditionsOf). */
+  conditions: string[];
+  /** Each condition's merged transfer configuration, validated and defaulted on the server (conditionConfig). */
+  configs: TransferConfig[];
   consent: { versionId: number; version: number; hash: string; body: string } | null;
   /** Condition indices in this participant's order (after consent). */
   order: number[] | null;
