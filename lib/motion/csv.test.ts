@@ -19,6 +19,12 @@ describe("sample stream CSV (interfaces.md format)", () => {
       { numRuns: 300 },
     );
   });
+  it("refuses a lone sign or point as a number, as Number() does (ECMAScript StringToNumber)", () => {
+    for (const v of ["-.", "+.", ".", "-", "+"]) {
+      expect(() => parseSampleCsv(`t_ms,gyro_x,gyro_y,gyro_z\n0,${v},2,3\n`, "s.csv"), v).toThrow(/s\.csv:2:gyro_x: /);
+    }
+    expect(parseSampleCsv("t_ms,gyro_x,gyro_y,gyro_z\n0,-0,.5,5.\n", "s.csv").columns.gyro_y[0]).toBe(0.5);
+  });
   it("reads quoted files through csv-parse", () => {
     const t = parseSampleCsv('"t_ms","gyro_x","gyro_y","gyro_z"\r\n"0","1.5","2","3"\r\n"10","4","5","6"\r\n', "q.csv");
     expect(t.length).toBe(2);

@@ -99,10 +99,11 @@ function fastFieldValue(text: string, start: number, end: number, file: string, 
     negative = first === 45;
     i++;
   }
-  let mantissa = 0, digits = 0, fraction = 0, seenDot = false, plain = i < end;
+  let mantissa = 0, digits = 0, fraction = 0, seenDot = false, sawDigit = false, plain = i < end;
   for (; i < end; i++) {
     const ch = text.charCodeAt(i);
     if (ch >= 48 && ch <= 57) {
+      sawDigit = true;
       if (mantissa !== 0 || ch !== 48) digits++;
       mantissa = mantissa * 10 + (ch - 48);
       if (seenDot) fraction++;
@@ -113,7 +114,8 @@ function fastFieldValue(text: string, start: number, end: number, file: string, 
       break;
     }
   }
-  if (plain && digits <= 15 && fraction <= 22 && (fraction > 0 || !seenDot || end - start > 1)) {
+  // at least one digit: "." and "-." are not numbers (Number() gives NaN), so they take the slow path
+  if (plain && sawDigit && digits <= 15 && fraction <= 22) {
     const x = mantissa / (POW10[fraction] as number);
     return negative ? -x : x;
   }
