@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO_PEOPLE } from "@/db/seeds/demo-scenario";
+import { DEMO_PEOPLE, DEMO_STUDY } from "@/db/seeds/demo-scenario";
 import { seedDemo } from "@/db/seeds/demo";
 import { verifyPassword } from "@/lib/auth/password";
 import { assertCanEditStudy, assertCanViewStudy, assertOwnsStudy, requireRole, type SessionUser } from "@/lib/auth/guards";
@@ -39,7 +39,8 @@ describe("demo seed", () => {
       expect(await verifyPassword(p.password, row.password_hash)).toBe(true);
       expect(await verifyPassword(p.password + "x", row.password_hash)).toBe(false);
     }
-    expect(await db("studies").count({ n: "*" }).first()).toEqual({ n: 1 });
+    // other test files add studies of their own; the demo study itself exists exactly once
+    expect(await db("studies").where({ title: DEMO_STUDY.title }).count({ n: "*" }).first()).toEqual({ n: 1 });
   });
 });
 
