@@ -17,7 +17,7 @@ import { writeArchive, type ArchiveSource, type ExportStream } from "../../lib/e
 import { formatSampleCsv } from "../../lib/motion/csv";
 import { simulateSequence } from "../../lib/motion/simulate";
 import type { TrialRecord } from "../../lib/results";
-import { studyDesignSchema } from "../../lib/study/design";
+import { conditionsOf, studyDesignSchema } from "../../lib/study/design";
 import { ringTargets, ringVisitingOrder } from "../../lib/task";
 
 const dir = process.env.YAWPOINT_BENCH_DIR ?? "/tmp/yawpoint-bench-export";
@@ -69,6 +69,7 @@ async function prepare(): Promise<void> {
 /** A file-backed source: trials read line by line, streams one file at a time. */
 function fileSource(): ArchiveSource {
   const info = JSON.parse(readFileSync(readdirSync(dir).filter((f) => f.startsWith(".ready")).map((f) => `${dir}/${f}`)[0]!, "utf8")) as { movements: number; streams: number };
+  const conditionIndex = new Map(conditionsOf(design).map((c, i) => [c.label, i]));
   const ids = new Map(Array.from({ length: participants }, (_, i) => [`P${String(i + 1).padStart(2, "0")}`, i + 1]));
   return {
     study: { id: 1, title: "Export benchmark (generated)", design, createdAt: new Date(0) },
@@ -96,7 +97,7 @@ function fileSource(): ArchiveSource {
         for (const f of readdirSync(`${dir}/data/streams/${p}`).sort()) {
           const m = f.match(/^b(\d+)-(.+)-s(\d+)\.csv\.gz$/)!;
           const path = `${dir}/data/streams/${p}/${f}`;
-          yield { participantId: ids.get(p)!, condition: label(m[2]!), conditionIndex: 0, block: Number(m[1]), sequence: Number(m[3]), practice: false, read: () => readFile(path) };
+          yield { participantId: ids.get(p)!, condition: label(m[2]!), conditionIndex: conditionIndex.get(label(m[2]!)) ?? 0, block: Number(m[1]), sequence: Number(m[3]), practice: false, read: () => readFile(path) };
         }
       }
     },
@@ -115,9 +116,15 @@ if (process.argv[2] === "--child") {
   const t0 = performance.now();
   const pseudonyms = new Map(Array.from({ length: participants }, (_, i) => [i + 1, `r-${String(i + 1).padStart(3, "0")}`]));
   const peaks = new Map<string, number>();
+  let current = "start";
+  const sample = (): void => void peaks.set(current, Math.max(peaks.get(current) ?? 0, process.memoryUsage.rss() / 1e6));
+  const sampler = setInterval(sample, 50); // between progress calls too (the central directory is written after the last one)
   const s = await writeArchive(fileSource(), { pseudonyms: "random", includeStreams: true, includeDates: false, includeFreeText: false }, pseudonyms, out, (_f, stage) => {
-    peaks.set(stage, Math.max(peaks.get(stage) ?? 0, process.memoryUsage.rss() / 1e6));
+    sample();
+    current = stage;
+    sample();
   });
+  clearInterval(sampler);
   if (process.env.YAWPOINT_BENCH_VERBOSE) process.stderr.write(`RSS by stage (MB): ${[...peaks].map(([k, v]) => `${k} ${v.toFixed(0)}`).join(", ")}; heap ${(process.memoryUsage().heapUsed / 1e6).toFixed(0)} MB\n`);
   process.stdout.write(JSON.stringify({ seconds: (performance.now() - t0) / 1000, bytes: s.sizeBytes, movements: s.movements, streams: s.streams }) + "\n");
 } else {
@@ -131,7 +138,9 @@ if (process.argv[2] === "--child") {
     rmSync(`${dir}/ours.zip`, { force: true });
     const a = spawnSync("/usr/bin/time", ["-f", "%e %M", process.execPath, "--import", "tsx", "--no-warnings", "experiments/bench/export.ts", "--child", `${dir}/ours.zip`], { encoding: "utf8", maxBuffer: 1 << 26 });
     if (a.status !== 0) throw new Error(`export failed: ${a.stderr}`);
-    const [sa, ka] = a.stderr.trim().split("\n").at(-1)!.split(" ").map(Number);
+    const lines = a.stderr.trim().split("\n");
+    for (const l of lines.slice(0, -1)) console.log(`  child: ${l}`);
+    const [sa, ka] = lines.at(-1)!.split(" ").map(Number);
     ours.push({ s: sa!, rss: ka! / 1024, out: statSync(`${dir}/ours.zip`).size });
     rmSync(`${dir}/zip.zip`, { force: true });
     const z = spawnSync("/usr/bin/time", ["-f", "%e %M", "zip", "-q", "-r", `${dir}/zip.zip`, "."], { cwd: `${dir}/data`, encoding: "utf8" });

@@ -73,7 +73,8 @@ function appendEntry(archive: Archiver, source: Readable | Buffer | string, name
     archive.once("error", onError);
     // Buffers and strings go in as streams: archiver writes a stored Buffer without waiting for
     // the output to drain, so a fast source would pile up in memory; a stream is piped with backpressure.
-    const body = typeof source === "string" || Buffer.isBuffer(source) ? Readable.from([Buffer.from(source)]) : source;
+    // A Buffer goes in as it is (Buffer.from(buffer) would copy every raw stream once more).
+    const body = typeof source === "string" ? Readable.from([Buffer.from(source)]) : Buffer.isBuffer(source) ? Readable.from([source]) : source;
     archive.append(body, { name, store });
   });
 }
