@@ -5,7 +5,9 @@ let passed = 0, failed = 0, skipped = 0;
 const missing = [];
 if (existsSync("reports/vitest.json")) {
   const v = JSON.parse(readFileSync("reports/vitest.json", "utf8"));
-  passed += v.numPassedTests; failed += v.numFailedTests + (v.numFailedTestSuites ?? 0); skipped += v.numPendingTests + (v.numTodoTests ?? 0);
+  passed += v.numPassedTests; failed += v.numFailedTests; skipped += v.numPendingTests + (v.numTodoTests ?? 0);
+  // a file that failed to load has no failed test but fails the run
+  if (v.success === false && v.numFailedTests === 0) failed += 1;
 } else missing.push("vitest");
 if (existsSync("reports/playwright.json")) {
   const p = JSON.parse(readFileSync("reports/playwright.json", "utf8"));
