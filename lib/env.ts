@@ -19,6 +19,8 @@ const schemaFor = (isDev: boolean) => z.object({
   DB_NAME: z.string().regex(/^[A-Za-z0-9_]+$/).default("yawpoint"),
   DB_USER: z.string().default("yawpoint"),
   DB_PASSWORD: z.string().default("yawpoint-local"),
+  /** Largest number of database connections the server's pool opens. */
+  DB_POOL_MAX: z.coerce.number().int().min(1).max(200).default(10),
   SMTP_HOST: z.string().default("127.0.0.1"),
   SMTP_PORT: z.coerce.number().int().positive().default(2525),
   SMTP_USER: z.string().optional(),

@@ -6,6 +6,9 @@
 // duplicate). Bounded: 50 × 37 requests per round, 60 s cap. Three rounds; figures per round and
 // the median. Afterwards the database must hold every movement exactly once.
 // This is a harness (it needs the database to set up and to check), not domain logic.
+import { execFileSync } from "node:child_process";
+import { readFileSync } from "node:fs";
+import { loadavg } from "node:os";
 import { performance } from "node:perf_hooks";
 import { planSession, type SessionState } from "../../lib/runner";
 import { studyDesignSchema, type StudyDesignInput } from "../../lib/study/design";
@@ -13,9 +16,26 @@ import { createSessionStudy, fixtureDb, motionDesign } from "../../tests/e2e/fix
 import { batchFor } from "../../tests/e2e/fixtures/session-batch";
 import { median, quantile, startServer } from "../../tests/e2e/fixtures/session-server";
 
-const SESSIONS = 50, ROUNDS = 3, CAP_MS = 60_000;
+const SESSIONS = 50, ROUNDS = Number(process.env.INGEST_ROUNDS ?? 3), CAP_MS = 60_000;
 const benchDesign: StudyDesignInput = { ...motionDesign, blocks: 2, task: { ...motionDesign.task, amplitudes: [300, 200], widths: [30, 60], sequencesPerAW: 2 } };
 const design = studyDesignSchema.parse(benchDesign);
+
+/** CPU seconds (user + system) of the process listening on `port` (the server), from /proc. */
+function serverCpuSeconds(port: number): number | null {
+  try {
+    const out = execFileSync("ss", ["-ltnpH", `sport = :${port}`], { encoding: "utf8" });
+    const pid = /pid=(\d+)/.exec(out)?.[1];
+    if (!pid) return null;
+    const fields = readFileSync(`/proc/${pid}/stat`, "utf8").split(") ")[1]!.split(" ");
+    return (Number(fields[11]) + Number(fields[12])) / 100; // utime, stime in clock ticks (USER_HZ = 100)
+  } catch {
+    return null;
+  }
+}
+const generatorCpuSeconds = (): number => {
+  const u = process.cpuUsage();
+  return (u.user + u.system) / 1e6;
+};
 
 async function round(url: string, db: ReturnType<typeof fixtureDb>, r: number) {
   const fx = await createSessionStudy(db, `Ingest bench ${Date.now()} ${r}`, benchDesign, SESSIONS);
@@ -29,6 +49,7 @@ async function round(url: string, db: ReturnType<typeof fixtureDb>, r: number) {
   }));
   const latencies: number[] = [];
   let created = 0, duplicates = 0, failed = 0;
+  const serverCpu0 = serverCpuSeconds(port), generatorCpu0 = generatorCpuSeconds(), load0 = loadavg()[0]!;
   const t0 = performance.now();
   await Promise.all(sessions.map(async ({ p, bodies }) => {
     for (const body of bodies) {
@@ -43,6 +64,8 @@ async function round(url: string, db: ReturnType<typeof fixtureDb>, r: number) {
     }
   }));
   const elapsed = (performance.now() - t0) / 1000;
+  const serverCpu1 = serverCpuSeconds(port), generatorCpu = generatorCpuSeconds() - generatorCpu0, load1 = loadavg()[0]!;
+  const serverCpu = serverCpu0 !== null && serverCpu1 !== null ? serverCpu1 - serverCpu0 : null;
   const planned = sessions[0]!.bodies.length - Math.ceil((sessions[0]!.bodies.length) / 11);
   const ids = fx.participants.map((p) => p.id);
   const [{ n: trials }] = (await db("trials").whereIn("participant_id", ids).count({ n: "*" })) as [{ n: number }];
@@ -51,19 +74,20 @@ async function round(url: string, db: ReturnType<typeof fixtureDb>, r: number) {
   return {
     requests: latencies.length, batchesPerS: latencies.length / elapsed, p50: quantile(latencies, 0.5), p99: quantile(latencies, 0.99),
     created, duplicates, failed, lost: expectedBatches - Number(streams), duplicatedRows: Number(trials) - Number(streams) * design.task.targetsPerRing,
-    expectedBatches, elapsed,
+    expectedBatches, elapsed, serverCpu, generatorCpu, load0, load1,
   };
 }
 
 const port = Number(process.env.PORT ?? 3204);
-const server = await startServer(port);
+// INGEST_EXTERNAL_SERVER=1: use a server already listening on PORT (e.g. one started under `node --cpu-prof`)
+const server = process.env.INGEST_EXTERNAL_SERVER === "1" ? { url: `http://127.0.0.1:${port}`, stop: () => undefined } : await startServer(port);
 const db = fixtureDb();
 try {
   const results = [];
   for (let r = 0; r < ROUNDS; r++) {
     const x = await round(server.url, db, r);
     results.push(x);
-    console.log(`round ${r + 1}: ${x.requests} requests in ${x.elapsed.toFixed(1)} s = ${x.batchesPerS.toFixed(0)} batches/s, p50 ${x.p50.toFixed(1)} ms, p99 ${x.p99.toFixed(1)} ms; stored ${x.created}, duplicates answered ${x.duplicates}, failed ${x.failed}; lost ${x.lost}, duplicated rows ${x.duplicatedRows}`);
+    console.log(`round ${r + 1}: ${x.requests} requests in ${x.elapsed.toFixed(1)} s = ${x.batchesPerS.toFixed(0)} batches/s, p50 ${x.p50.toFixed(1)} ms, p99 ${x.p99.toFixed(1)} ms; stored ${x.created}, duplicates answered ${x.duplicates}, failed ${x.failed}; lost ${x.lost}, duplicated rows ${x.duplicatedRows}; CPU server ${x.serverCpu === null ? "?" : x.serverCpu.toFixed(1)} s (${x.serverCpu === null ? "?" : ((100 * x.serverCpu) / x.elapsed).toFixed(0)} % of a core), generator ${x.generatorCpu.toFixed(1)} s (${((100 * x.generatorCpu) / x.elapsed).toFixed(0)} %); load average ${x.load0.toFixed(2)} → ${x.load1.toFixed(2)}`);
   }
   console.log(`median of ${ROUNDS}: ${median(results.map((x) => x.batchesPerS)).toFixed(0)} batches/s, p99 ${median(results.map((x) => x.p99)).toFixed(1)} ms (target ≥ 200/s at p99 < 250 ms); lost ${results.reduce((a, x) => a + x.lost, 0)}, duplicated ${results.reduce((a, x) => a + x.duplicatedRows, 0)}`);
 } finally {

@@ -100,10 +100,25 @@ export function orderOf(ctx: SessionContext): number[] | null {
   return order.every((i) => i >= 0) ? order : null;
 }
 
-/** The participant's plan (every sequence in order), or null before consent. */
-export function planOf(ctx: SessionContext): PlannedSequence[] | null {
+const planCache = new WeakMap<StudyDesign, Map<string, readonly PlannedSequence[]>>();
+
+/**
+ * The participant's plan (every sequence in order), or null before consent. Remembered per
+ * parsed design (the design cache keeps the object) by participant and stored order, since every
+ * upload checks against it.
+ */
+export function planOf(ctx: SessionContext): readonly PlannedSequence[] | null {
+  const key = `${ctx.participant.id}|${typeof ctx.participant.condition_order === "string" ? ctx.participant.condition_order : JSON.stringify(ctx.participant.condition_order ?? null)}`;
+  let plans = planCache.get(ctx.design);
+  const hit = plans?.get(key);
+  if (hit) return hit;
   const order = orderOf(ctx);
-  return order ? planSession(ctx.design, order, planSeedFor(ctx.design.counterbalancing.seed, ctx.participant.id)) : null;
+  if (!order) return null;
+  const plan = Object.freeze(planSession(ctx.design, order, planSeedFor(ctx.design.counterbalancing.seed, ctx.participant.id)));
+  if (!plans) planCache.set(ctx.design, (plans = new Map()));
+  if (plans.size >= 4096) plans.delete(plans.keys().next().value!);
+  plans.set(key, plan);
+  return plan;
 }
 
 type ConsentVersionRow = { id: number; study_id: number; version: number; body_md: string; sha256: string | null; status: string };

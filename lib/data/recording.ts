@@ -50,10 +50,14 @@ export async function ingestSequenceBatch(db: Knex, ctx: SessionContext, batch: 
   const gz = decodeStream(batch);
   try {
     return await db.transaction(async (trx) => {
-      const current = await trx<ParticipantRow>("participants").where({ id: p.id }).forUpdate().first("status");
+      // one round trip: lock the participant row and look for an earlier upload of this key
+      const [rows] = (await trx.raw(
+        "SELECT p.status, EXISTS (SELECT 1 FROM sequence_streams s WHERE s.participant_id = p.id AND s.upload_key = ?) AS existing FROM participants p WHERE p.id = ? FOR UPDATE",
+        [batch.key, p.id],
+      )) as [Array<{ status: ParticipantRow["status"]; existing: number }>, unknown];
+      const current = rows[0];
       if (!current || current.status === "withdrawn") throw withdrawnError();
-      const existing = await trx("sequence_streams").where({ participant_id: p.id, upload_key: batch.key }).first("id");
-      if (existing) return { duplicate: true, movements: 0 };
+      if (Number(current.existing) === 1) return { duplicate: true, movements: 0 };
       const common = { participant_id: p.id, condition: batch.condition, condition_index: batch.conditionIndex, block: batch.block, sequence: batch.sequence, practice: batch.practice };
       await trx("sequence_streams").insert({ ...common, upload_key: batch.key, sample_count: batch.stream.sampleCount, movement_count: batch.movements.length, stream_gz: gz, quality: JSON.stringify(batch.quality) });
       await trx("trials").insert(batch.movements.map((m) => ({ ...common, ...m, unit: batch.unit, amplitude: batch.amplitude, width: batch.width, hit: m.hit === 1, upload_key: batch.key })));
