@@ -2,7 +2,7 @@ import { gunzipSync } from "node:zlib";
 import type { Knex } from "knex";
 import { conflict, unprocessable } from "@/lib/errors";
 import { batchProblems, type SequenceBatch } from "@/lib/runner";
-import { planOf, withdrawnError, type ParticipantRow, type SessionContext } from "./participants";
+import { planOf, withdrawnError, type SessionContext } from "./participants";
 
 /** The largest decompressed stream accepted (bytes): ~10 minutes at 250 Hz. */
 export const MAX_STREAM_BYTES = 16 * 1024 * 1024;
@@ -50,19 +50,20 @@ export async function ingestSequenceBatch(db: Knex, ctx: SessionContext, batch: 
   const gz = decodeStream(batch);
   try {
     return await db.transaction(async (trx) => {
-      // one round trip: lock the participant row and look for an earlier upload of this key
-      const [rows] = (await trx.raw(
-        "SELECT p.status, EXISTS (SELECT 1 FROM sequence_streams s WHERE s.participant_id = p.id AND s.upload_key = ?) AS existing FROM participants p WHERE p.id = ? FOR UPDATE",
-        [batch.key, p.id],
-      )) as [Array<{ status: ParticipantRow["status"]; existing: number }>, unknown];
-      const current = rows[0];
-      if (!current || current.status === "withdrawn") throw withdrawnError();
-      if (Number(current.existing) === 1) return { duplicate: true, movements: 0 };
+      // The activity update locks the participant row (a withdrawal takes the same lock) and
+      // refuses a withdrawn row in the same round trip; SET runs left to right, so started_at
+      // still sees the old status. A repeated key then fails the unique upload_key index on the
+      // stream insert, which rolls all of this back and answers duplicate (below).
+      const now = new Date();
+      const matched = await trx("participants").where({ id: p.id }).whereNot({ status: "withdrawn" }).update({
+        last_activity_at: now,
+        started_at: trx.raw("IF(status = 'consented', ?, started_at)", [now]),
+        status: trx.raw("IF(status = 'consented', 'in_progress', status)"),
+      });
+      if (matched === 0) throw withdrawnError();
       const common = { participant_id: p.id, condition: batch.condition, condition_index: batch.conditionIndex, block: batch.block, sequence: batch.sequence, practice: batch.practice };
       await trx("sequence_streams").insert({ ...common, upload_key: batch.key, sample_count: batch.stream.sampleCount, movement_count: batch.movements.length, stream_gz: gz, quality: JSON.stringify(batch.quality) });
       await trx("trials").insert(batch.movements.map((m) => ({ ...common, ...m, unit: batch.unit, amplitude: batch.amplitude, width: batch.width, hit: m.hit === 1, upload_key: batch.key })));
-      const now = new Date();
-      await trx("participants").where({ id: p.id }).update({ last_activity_at: now, ...(current.status === "consented" ? { status: "in_progress", started_at: now } : {}) });
       return { duplicate: false, movements: batch.movements.length };
     });
   } catch (e) {
