@@ -13,6 +13,7 @@ import type { MotionSample } from "./sample";
 import { stickHeadingDeg, wrapAngleDeg } from "./stick/stickHeading";
 import { stickRateMagnitude } from "./stick/stickRate";
 import { tiltForwardDeg, tiltSidewaysDeg } from "./stick/tiltAngles";
+import { isValidSample } from "./sampleValidity";
 
 /**
  * One output step. View mode: `dx` = yaw change in degrees, positive to the right; `dy` = pitch
@@ -53,33 +54,9 @@ export interface MotionEngine {
 export const LATENCY_QUEUE_CAPACITY = 4096;
 
 
-const isFiniteNumber = (v: unknown): boolean => typeof v === "number" && Number.isFinite(v);
-const isOptionalFinite = (v: unknown): boolean => v === undefined || isFiniteNumber(v);
 
-/**
- * Sample validity check for the engine's hot path (sampleIsUsable): the same field rules as
- * `isValidSample` in ./sample.ts (W3C units), kept here so this module needs no schema library.
- * The engine tests feed invalid samples through both engines, so the two cannot drift unnoticed.
- * Cost: O(1), no allocation.
- * @throws never.
- * @example sampleIsUsable({ tMs: 0, gyroX: 1, gyroY: NaN, gyroZ: 0 }) // false
- */
-export function sampleIsUsable(s: MotionSample): boolean {
-  if (s === null || typeof s !== "object") return false;
-  if (!isFiniteNumber(s.tMs) || !isFiniteNumber(s.gyroX) || !isFiniteNumber(s.gyroY) || !isFiniteNumber(s.gyroZ)) return false;
-  const ax = s.accelX, ay = s.accelY, az = s.accelZ;
-  if (ax === undefined || ay === undefined || az === undefined) {
-    if (ax !== undefined || ay !== undefined || az !== undefined) return false;
-  } else if (!isFiniteNumber(ax) || !isFiniteNumber(ay) || !isFiniteNumber(az)) {
-    return false;
-  }
-  const sx = s.stickX, sy = s.stickY;
-  if (sx !== undefined && (!isFiniteNumber(sx) || sx < -1 || sx > 1)) return false;
-  if (sy !== undefined && (!isFiniteNumber(sy) || sy < -1 || sy > 1)) return false;
-  const b = s.buttons;
-  if (b !== undefined && (!Number.isInteger(b) || b < 0 || b > 0xffffffff)) return false;
-  return isOptionalFinite(s.pointerDx) && isOptionalFinite(s.pointerDy) && isOptionalFinite(s.screenAngleDeg);
-}
+/** The engine's hot-path sample check (the same function as `isValidSample`, without the schema module). */
+export const sampleIsUsable = isValidSample;
 
 /**
  * Create a motion-aim engine from a configuration that is already validated
