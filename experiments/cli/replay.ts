@@ -8,7 +8,7 @@ import { createMotionEngine } from "../../lib/motion/engine";
 import { parseTransferConfig, TransferConfigError, type TransferConfig } from "../../lib/motion/config";
 import { parseSampleCsv, sampleFromTable, SampleCsvError } from "../../lib/motion/csv";
 import type { MotionSample } from "../../lib/motion/sample";
-import { formatMillionths } from "./formatMillionths";
+import { writeMillionths, writeNumberText } from "./writeMillionths";
 
 function fail(message: string): never {
   process.stderr.write(message.replace(/\n/g, " ") + "\n");
@@ -88,21 +88,38 @@ function main(): void {
   const sample: MotionSample = { tMs: 0, gyroX: 0, gyroY: 0, gyroZ: 0 };
   const cursor = config.displayMode === "cursor";
   let x = 0, y = 0;
-  let chunk = cursor ? "t_ms,x_px,y_px\n" : "t_ms,yaw_deg,pitch_deg\n";
+  // Output lines written as bytes into one 1 MB buffer (writeMillionths gives exactly the text of
+  // String(Math.round(v·1e6)/1e6)), flushed whenever fewer than LINE_ROOM bytes are left.
+  const out = Buffer.allocUnsafe(OUT_BYTES);
+  let at = out.write(cursor ? "t_ms,x_px,y_px\n" : "t_ms,yaw_deg,pitch_deg\n", 0, "latin1");
   for (let i = 0; i < table.length; i++) {
     const step = engine.push(sampleFromTable(table, i, sample));
     if (step) {
       x += step.dx;
       y += step.dy;
     }
-    // Output rounded to millionths (formatMillionths prints String(Math.round(v·1e6)/1e6) faster).
-    chunk += `${sample.tMs},${formatMillionths(x)},${formatMillionths(y)}\n`;
-    if (chunk.length > 1 << 16) {
-      writeSync(1, chunk);
-      chunk = "";
+    at = writeNumberText(out, at, sample.tMs);
+    out[at++] = 44;
+    at = writeMillionths(out, at, x);
+    out[at++] = 44;
+    at = writeMillionths(out, at, y);
+    out[at++] = 10;
+    if (at > OUT_BYTES - LINE_ROOM) {
+      writeAll(out, at);
+      at = 0;
     }
   }
-  writeSync(1, chunk);
+  writeAll(out, at);
+}
+
+const OUT_BYTES = 1 << 20;
+/** Room for one output line: three numbers of at most ~25 characters each plus separators. */
+const LINE_ROOM = 256;
+
+/** Write out[0, end) to stdout, looping over partial writes. */
+function writeAll(out: Buffer, end: number): void {
+  let done = 0;
+  while (done < end) done += writeSync(1, out, done, end - done);
 }
 
 main();

@@ -122,6 +122,47 @@ function fastFieldValue(text: string, start: number, end: number, file: string, 
   return fieldValue(text.slice(start, end), file, line, column);
 }
 
+/** Where scanPlainField stopped (the comma or the line end), or −1 when it gave up. */
+let scanEnd = -1;
+
+/**
+ * Fast path of fastFieldValue fused with finding the field's end: reads a field that is exactly
+ * [-+]digits[.digits] (at most 15 significant digits, 22 decimals) or empty, ending at a comma or
+ * at `stop`, sets scanEnd there and returns what fastFieldValue returns for it; for anything else
+ * sets scanEnd = −1 (the caller then finds the comma and calls fastFieldValue).
+ */
+function scanPlainField(text: string, start: number, stop: number): number {
+  let i = start, negative = false;
+  let ch = i < stop ? text.charCodeAt(i) : 44;
+  if (ch === 44) {
+    scanEnd = i;
+    return NaN; // empty field
+  }
+  if (ch === 45 || ch === 43) {
+    negative = ch === 45;
+    i++;
+  }
+  let mantissa = 0, digits = 0, fraction = 0, seenDot = false, sawDigit = false;
+  for (; i < stop; i++) {
+    ch = text.charCodeAt(i);
+    if (ch >= 48 && ch <= 57) {
+      sawDigit = true;
+      if (mantissa !== 0 || ch !== 48) digits++;
+      mantissa = mantissa * 10 + (ch - 48);
+      if (seenDot) fraction++;
+    } else if (ch === 46 && !seenDot) {
+      seenDot = true;
+    } else break;
+  }
+  if ((i === stop || ch === 44) && sawDigit && digits <= 15 && fraction <= 22) {
+    scanEnd = i;
+    const x = mantissa / (POW10[fraction] as number);
+    return negative ? -x : x;
+  }
+  scanEnd = -1;
+  return NaN;
+}
+
 function fieldValue(raw: string, file: string, line: number, column: string): number {
   const s = raw.trim();
   if (s === "") return NaN;
@@ -170,9 +211,17 @@ function parsePlain(text: string, file: string): SampleTable {
   const header = text.slice(0, end).replace(/\r$/, "").split(",");
   const { index, present } = headerLayout(header, file);
   const table = emptyTable(countLines(text), present);
-  const values = new Float64Array(sampleColumns.length);
+  // Each field goes straight into its column; every present column gets one field per row (a row
+  // with fewer fields is an error), so the checks below read the row back from the columns, with
+  // an absent column counting as empty, in the order storeRow checks them.
+  const targets = table.targets;
+  const c = table.columns;
+  const tMs = c.t_ms, gyroX = c.gyro_x, gyroY = c.gyro_y, gyroZ = c.gyro_z;
+  const accel = present.accel_x || present.accel_y || present.accel_z;
+  const hasAx = present.accel_x, hasAy = present.accel_y, hasAz = present.accel_z;
+  const hasSx = present.stick_x, hasSy = present.stick_y, hasButtons = present.buttons;
   const nFields = header.length;
-  let pos = end + 1, line = 1;
+  let pos = end + 1, line = 1, row = 0;
   while (pos < text.length) {
     line++;
     let lineEnd = text.indexOf("\n", pos);
@@ -183,22 +232,63 @@ function parsePlain(text: string, file: string): SampleTable {
       pos = lineEnd + 1;
       continue; // blank line
     }
-    values.fill(NaN);
     let f = 0, start = pos;
     for (;;) {
-      let comma = text.indexOf(",", start);
-      if (comma === -1 || comma > stop) comma = stop;
       if (f >= nFields) throw new SampleCsvError(file, line, "(row)", `more than ${nFields} fields`);
       const k = index[f] as number;
-      if (k >= 0) values[k] = fastFieldValue(text, start, comma, file, line, sampleColumns[k] as string);
+      let comma = -1;
+      if (k >= 0) {
+        const target = targets[k] as Float64Array;
+        const x = scanPlainField(text, start, stop);
+        comma = scanEnd;
+        if (comma >= 0) target[row] = x;
+        else {
+          comma = text.indexOf(",", start);
+          if (comma === -1 || comma > stop) comma = stop;
+          target[row] = fastFieldValue(text, start, comma, file, line, sampleColumns[k] as string);
+        }
+      } else {
+        comma = text.indexOf(",", start);
+        if (comma === -1 || comma > stop) comma = stop;
+      }
       f++;
       if (comma === stop) break;
       start = comma + 1;
     }
     if (f < nFields) throw new SampleCsvError(file, line, (header[f] ?? "").trim(), "missing field");
-    storeRow(table, values, file, line);
+    const t = tMs[row] as number;
+    if (t !== t) throw new SampleCsvError(file, line, "t_ms", "empty");
+    if (Number.isNaN(gyroX[row])) throw new SampleCsvError(file, line, "gyro_x", "empty");
+    if (Number.isNaN(gyroY[row])) throw new SampleCsvError(file, line, "gyro_y", "empty");
+    if (Number.isNaN(gyroZ[row])) throw new SampleCsvError(file, line, "gyro_z", "empty");
+    if (accel) {
+      const ax = !hasAx || Number.isNaN(c.accel_x[row]);
+      const ay = !hasAy || Number.isNaN(c.accel_y[row]);
+      const az = !hasAz || Number.isNaN(c.accel_z[row]);
+      if (!(ax === ay && ay === az)) {
+        const missing = ax ? "accel_x" : ay ? "accel_y" : "accel_z";
+        throw new SampleCsvError(file, line, missing, "empty while another acceleration field is given");
+      }
+    }
+    if (hasSx) {
+      const v = c.stick_x[row] as number;
+      if (v < -1 || v > 1) throw new SampleCsvError(file, line, "stick_x", "outside -1..1");
+    }
+    if (hasSy) {
+      const v = c.stick_y[row] as number;
+      if (v < -1 || v > 1) throw new SampleCsvError(file, line, "stick_y", "outside -1..1");
+    }
+    if (hasButtons) {
+      const b = c.buttons[row] as number;
+      if (!Number.isNaN(b) && (!Number.isInteger(b) || b < 0 || b > 0xffffffff)) {
+        throw new SampleCsvError(file, line, "buttons", "not a non-negative integer bitmask");
+      }
+    }
+    if (row > 0 && t < (tMs[row - 1] as number)) throw new SampleCsvError(file, line, "t_ms", "time goes backwards");
+    row++;
     pos = lineEnd + 1;
   }
+  table.length = row;
   return table;
 }
 
