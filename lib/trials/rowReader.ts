@@ -48,6 +48,9 @@ export function makeRowReader(header: readonly string[], file: string, legacy: b
     .map((h) => ({ factor: h.name.slice(FACTOR_PREFIX.length), i: h.i }));
 
   const factorCache = new Map<string, Record<string, string>>();
+  /** Raw factor fields of the last row that built or looked up `factors`, and that object. */
+  const lastFactorFields: string[] = factorColumns.map(() => "");
+  let lastFactors: Readonly<Record<string, string>> | undefined;
 
   const fail = (line: number, i: number, message: string): never => {
     throw new TrialTableError({ file, line, column: header[i]!.trim() }, message);
@@ -81,14 +84,25 @@ export function makeRowReader(header: readonly string[], file: string, legacy: b
     const trial = int(fields, line, integers[2]!);
     if (trial < 1) fail(line, integers[2]!, `trial must be ≥ 1, got ${trial}`);
     // Rows of a sequence repeat their factor levels: one frozen object per distinct raw text.
-    let key = "";
-    for (let k = 0; k < factorColumns.length; k++) key += fields[factorColumns[k]!.i]! + "\u0000";
-    let factors = factorCache.get(key);
-    if (factors === undefined) {
-      const built: Record<string, string> = {};
-      for (const f of factorColumns) built[f.factor] = text(fields, line, f.i);
-      factors = Object.freeze(built);
-      if (factorCache.size < FACTOR_CACHE_LIMIT) factorCache.set(key, factors);
+    // The previous row's raw factor fields are checked first (no key string built when they match).
+    let same = lastFactors !== undefined;
+    for (let k = 0; same && k < factorColumns.length; k++) same = fields[factorColumns[k]!.i] === lastFactorFields[k];
+    let factors: Readonly<Record<string, string>>;
+    if (same) {
+      factors = lastFactors!;
+    } else {
+      let key = "";
+      for (let k = 0; k < factorColumns.length; k++) key += fields[factorColumns[k]!.i]! + "\u0000";
+      let cached = factorCache.get(key);
+      if (cached === undefined) {
+        const built: Record<string, string> = {};
+        for (const f of factorColumns) built[f.factor] = text(fields, line, f.i);
+        cached = Object.freeze(built);
+        if (factorCache.size < FACTOR_CACHE_LIMIT) factorCache.set(key, cached);
+      }
+      factors = cached;
+      for (let k = 0; k < factorColumns.length; k++) lastFactorFields[k] = fields[factorColumns[k]!.i]!;
+      lastFactors = cached;
     }
     const participant = text(fields, line, iParticipant);
     const condition = text(fields, line, iCondition);
