@@ -1,7 +1,8 @@
+import type { MovementColumns } from "../trials/movementColumns";
 import type { TrialRow } from "../trials/trialRow";
 
 /** A stored movement (the trials table's columns, practice rows already left out). */
-export interface TrialRecord {
+export interface TrialRecord extends MovementColumns {
   participant_id: number;
   condition: string;
   block: number;
@@ -9,15 +10,6 @@ export interface TrialRecord {
   trial: number;
   amplitude: number;
   width: number;
-  from_x: number;
-  from_y: number;
-  to_x: number;
-  to_y: number;
-  start_x: number;
-  start_y: number;
-  end_x: number;
-  end_y: number;
-  time_ms: number;
   hit: number | boolean;
 }
 

@@ -1,18 +1,10 @@
+import type { MovementColumns } from "@/lib/trials/movementColumns";
 import type { Point } from "@/lib/task/point";
 import { isInsideTarget, type SequenceLayout } from "./geometry";
 
 /** One movement as the runner records it: the trial table columns that vary per movement. */
-export interface RecordedMovement {
+export interface RecordedMovement extends MovementColumns {
   trial: number;
-  from_x: number;
-  from_y: number;
-  to_x: number;
-  to_y: number;
-  start_x: number;
-  start_y: number;
-  end_x: number;
-  end_y: number;
-  time_ms: number;
   hit: 0 | 1;
 }
 

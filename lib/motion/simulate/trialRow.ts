@@ -1,5 +1,7 @@
+import type { MovementColumns } from "../../trials/movementColumns";
+
 /** One movement, with the columns of the trial table (interfaces.md "Trial table"). */
-export interface TrialRow {
+export interface TrialRow extends MovementColumns {
   participant: string;
   condition: string;
   block: number;
@@ -7,15 +9,6 @@ export interface TrialRow {
   trial: number;
   amplitude: number;
   width: number;
-  from_x: number;
-  from_y: number;
-  to_x: number;
-  to_y: number;
-  start_x: number;
-  start_y: number;
-  end_x: number;
-  end_y: number;
-  time_ms: number;
   hit: 0 | 1;
 }
 
