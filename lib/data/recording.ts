@@ -19,25 +19,31 @@ export function decodeStream(batch: SequenceBatch): Buffer {
   if (gz.length < 18 || gz[0] !== 0x1f || gz[1] !== 0x8b) throw unprocessable("stream: not gzip data");
   let csv: Buffer;
   try {
-    csv = gunzipSync(gz, { maxOutputLength: MAX_STREAM_BYTES });
+    csv = gunzipSync(gz, { maxOutputLength: MAX_STREAM_BYTES, chunkSize: 64 * 1024 });
   } catch (e) {
     throw unprocessable(`stream: cannot be decompressed (${e instanceof Error ? e.message : String(e)})`);
   }
   let lines = 0;
-  for (let i = 0; i < csv.length; i++) if (csv[i] === 0x0a) lines++;
+  for (let i = csv.indexOf(0x0a); i !== -1; i = csv.indexOf(0x0a, i + 1)) lines++;
   if (csv.length > 0 && csv[csv.length - 1] !== 0x0a) lines++;
   if (!csv.subarray(0, 64).toString("utf8").startsWith("t_ms,gyro_x,gyro_y,gyro_z")) throw unprocessable("stream: the header must start with t_ms,gyro_x,gyro_y,gyro_z");
   if (lines - 1 !== batch.stream.sampleCount) throw unprocessable(`stream: ${lines - 1} samples, but sampleCount says ${batch.stream.sampleCount}`);
   return gz;
 }
 
-const isDuplicateKey = (e: unknown): boolean => typeof e === "object" && e !== null && (e as { code?: string }).code === "ER_DUP_ENTRY";
+type Outcome = { outcome: "stored" | "duplicate" | "refused"; movements: number | string };
+
+/** The movement fields record_sequence reads with JSON_TABLE, in the trial table's names. */
+const movementJson = (batch: SequenceBatch): string =>
+  JSON.stringify(batch.movements.map((m) => ({ trial: m.trial, from_x: m.from_x, from_y: m.from_y, to_x: m.to_x, to_y: m.to_y, start_x: m.start_x, start_y: m.start_y, end_x: m.end_x, end_y: m.end_y, time_ms: m.time_ms, hit: m.hit })));
 
 /**
  * Stores one sequence upload (ingestSequenceBatch): its movements as trial rows and its stream,
- * compressed, in one transaction. Idempotent: a repeat of the same key stores nothing and
- * answers duplicate. Refuses a withdrawn session (410), a session without consent (409) and an
- * implausible batch (422, with the problems).
+ * compressed, in one transaction and one round trip to the database (the record_sequence
+ * procedure, db/migrations/20261202000100_create_record_sequence.ts). Idempotent: a repeat of the
+ * same key stores nothing and answers duplicate. Refuses a withdrawn session (410, also when the
+ * withdrawal came after `ctx` was read: the procedure checks the row under its lock), a session
+ * without consent (409) and an implausible batch (422, with the problems).
  */
 export async function ingestSequenceBatch(db: Knex, ctx: SessionContext, batch: SequenceBatch): Promise<IngestResult> {
   const p = ctx.participant;
@@ -48,26 +54,17 @@ export async function ingestSequenceBatch(db: Knex, ctx: SessionContext, batch: 
   const problems = batchProblems(batch, p.id, plan, ctx.design);
   if (problems.length > 0) throw unprocessable(`implausible sequence: ${problems[0]}`, problems.map((message) => ({ path: "batch", message })));
   const gz = decodeStream(batch);
-  try {
-    return await db.transaction(async (trx) => {
-      // The activity update locks the participant row (a withdrawal takes the same lock) and
-      // refuses a withdrawn row in the same round trip; SET runs left to right, so started_at
-      // still sees the old status. A repeated key then fails the unique upload_key index on the
-      // stream insert, which rolls all of this back and answers duplicate (below).
-      const now = new Date();
-      const matched = await trx("participants").where({ id: p.id }).whereNot({ status: "withdrawn" }).update({
-        last_activity_at: now,
-        started_at: trx.raw("IF(status = 'consented', ?, started_at)", [now]),
-        status: trx.raw("IF(status = 'consented', 'in_progress', status)"),
-      });
-      if (matched === 0) throw withdrawnError();
-      const common = { participant_id: p.id, condition: batch.condition, condition_index: batch.conditionIndex, block: batch.block, sequence: batch.sequence, practice: batch.practice };
-      await trx("sequence_streams").insert({ ...common, upload_key: batch.key, sample_count: batch.stream.sampleCount, movement_count: batch.movements.length, stream_gz: gz, quality: JSON.stringify(batch.quality) });
-      await trx("trials").insert(batch.movements.map((m) => ({ ...common, ...m, unit: batch.unit, amplitude: batch.amplitude, width: batch.width, hit: m.hit === 1, upload_key: batch.key })));
-      return { duplicate: false, movements: batch.movements.length };
-    });
-  } catch (e) {
-    if (isDuplicateKey(e)) return { duplicate: true, movements: 0 };
-    throw e;
+  const [sets] = (await db.raw("CALL record_sequence(?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)", [
+    p.id, new Date(), batch.key, batch.condition, batch.conditionIndex, batch.block, batch.sequence, batch.practice ? 1 : 0,
+    batch.unit, batch.amplitude, batch.width, batch.stream.sampleCount, gz, JSON.stringify(batch.quality), movementJson(batch),
+  ])) as [[Outcome[], unknown]];
+  const answer = sets[0]?.[0];
+  if (!answer) throw new Error("record_sequence answered no outcome");
+  if (answer.outcome === "duplicate") return { duplicate: true, movements: 0 };
+  if (answer.outcome === "refused") {
+    const row = (await db("participants").where({ id: p.id }).first("status")) as { status: string } | undefined;
+    if (row?.status === "invited") throw conflict("Consent comes first.");
+    throw withdrawnError();
   }
+  return { duplicate: false, movements: Number(answer.movements) };
 }

@@ -4,6 +4,7 @@ import { db } from "@/lib/db";
 import { AppError } from "@/lib/errors";
 import { fetchSessionByToken, recordConsent, withdrawParticipant, planOf, type SessionContext } from "@/lib/data/participants";
 import { ingestSequenceBatch } from "@/lib/data/recording";
+import { forgetUploadSession, requireUploadSession } from "@/lib/data/uploadSessions";
 import { studyDesignSchema } from "@/lib/study/design";
 import { verifyAuditChain } from "@/lib/data/audit";
 import { createSessionStudy, motionDesign, touchDesign, type SessionFixture } from "../e2e/fixtures/session-study";
@@ -52,6 +53,22 @@ describe("ingestSequenceBatch", () => {
     expect(row.status).toBe("in_progress");
   });
 
+  it("stores every movement field exactly as uploaded (doubles round-trip through the database unchanged)", async () => {
+    const ctx = (await fetchSessionByToken(db, fx.participants[0]!.token))!;
+    const plan = planOf(ctx)!;
+    const base = batchFor(design, ctx.participant.id, plan[1]!);
+    // Awkward IEEE 754 doubles (0.1 + 0.2, 1/3, a subnormal-adjacent value): each must come back bit for bit.
+    const odd = [0.1 + 0.2, 1 / 3, -1.23456789e-5, 2.2250738585072014e-308, 12345.678901234567];
+    const movements = base.movements.map((m, i) => ({ ...m, end_x: m.end_x + odd[i % odd.length]!, end_y: m.end_y - odd[(i + 2) % odd.length]!, time_ms: 700 + odd[(i + 1) % odd.length]! / 8, hit: (i % 4 === 3 ? 0 : 1) as 0 | 1 }));
+    expect(await ingestSequenceBatch(db, ctx, { ...base, movements })).toEqual({ duplicate: false, movements: movements.length });
+    const rows = await db("trials").where({ upload_key: base.key }).orderBy("trial");
+    expect(rows.map((r) => ({ trial: r.trial, from_x: r.from_x, from_y: r.from_y, to_x: r.to_x, to_y: r.to_y, start_x: r.start_x, start_y: r.start_y, end_x: r.end_x, end_y: r.end_y, time_ms: r.time_ms, hit: r.hit ? 1 : 0 }))).toEqual(movements);
+    expect(rows.every((r) => r.participant_id === ctx.participant.id && r.condition === base.condition && r.block === base.block && r.sequence === base.sequence && r.amplitude === base.amplitude && r.width === base.width && r.unit === base.unit && !r.practice === !base.practice)).toBe(true);
+    const stream = await db("sequence_streams").where({ upload_key: base.key }).first();
+    expect(stream.movement_count).toBe(movements.length);
+    expect(Buffer.compare(stream.stream_gz, Buffer.from(base.stream.gzipBase64, "base64"))).toBe(0);
+  });
+
   it("refuses an implausible batch (422) and a session without consent (409)", async () => {
     const ctx = await consented(fx.participants[1]!.token);
     const plan = planOf(ctx)!;
@@ -74,6 +91,24 @@ describe("ingestSequenceBatch", () => {
     expect(await db("trials").where({ participant_id: ctx.participant.id }).count({ n: "*" })).toEqual([{ n: 0 }]);
     expect((await db("consent_records").where({ participant_id: ctx.participant.id }).first()).withdrawn_at).not.toBeNull();
     expect((await verifyAuditChain(db)).intact).toBe(true);
+  });
+
+  it("a session remembered for uploads is refused all the same once withdrawn; a session without consent is not remembered", async () => {
+    const token = fx.participants[2]!.token;
+    const before = await requireUploadSession(db, token);
+    expect(before.participant.status).toBe("invited");
+    expect(await requireUploadSession(db, token)).not.toBe(before); // read again: nothing to reuse before consent
+    await consented(token);
+    const ctx = await requireUploadSession(db, token);
+    expect(await requireUploadSession(db, token)).toBe(ctx); // reused
+    const plan = planOf(ctx)!;
+    expect((await ingestSequenceBatch(db, ctx, batchFor(design, ctx.participant.id, plan[0]!))).duplicate).toBe(false);
+    await withdrawParticipant(db, ctx, "test");
+    const stale = await requireUploadSession(db, token);
+    expect(stale).toBe(ctx); // still the remembered, pre-withdrawal context
+    expect(await status(ingestSequenceBatch(db, stale, batchFor(design, ctx.participant.id, plan[1]!)))).toBe(410);
+    forgetUploadSession(token);
+    expect((await requireUploadSession(db, token)).participant.status).toBe("withdrawn");
   });
 
   it("keeps earlier data on withdrawal when the study's rule says keep", async () => {

@@ -3,8 +3,9 @@ import { z } from "zod";
 import { parseParams, readJson } from "@/lib/api/body";
 import { route } from "@/lib/api/respond";
 import { db } from "@/lib/db";
-import { requireSession } from "@/lib/data/participants";
+import { AppError } from "@/lib/errors";
 import { ingestSequenceBatch } from "@/lib/data/recording";
+import { forgetUploadSession, requireUploadSession } from "@/lib/data/uploadSessions";
 import { sequenceBatchSchema } from "@/lib/runner";
 
 export const dynamic = "force-dynamic";
@@ -16,9 +17,14 @@ const params = z.object({ token: z.string() });
  */
 export const POST = route(async (request: Request, context: { params: Promise<{ token: string }> }) => {
   const { token } = parseParams(params, await context.params);
-  const ctx = await requireSession(db, token);
+  const ctx = await requireUploadSession(db, token);
   const batch = await readJson(request, sequenceBatchSchema);
-  const result = await ingestSequenceBatch(db, ctx, batch);
-  // no-transform: the answer is a few bytes, and compressing it cost more server time than anything else in the profile
-  return NextResponse.json(result, { status: result.duplicate ? 200 : 201, headers: { "cache-control": "no-store, no-transform" } });
+  try {
+    const result = await ingestSequenceBatch(db, ctx, batch);
+    // no-transform: the answer is a few bytes, and compressing it cost more server time than anything else in the profile
+    return NextResponse.json(result, { status: result.duplicate ? 200 : 201, headers: { "cache-control": "no-store, no-transform" } });
+  } catch (e) {
+    if (e instanceof AppError && (e.status === 409 || e.status === 410)) forgetUploadSession(token);
+    throw e;
+  }
 });
