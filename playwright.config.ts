@@ -18,7 +18,7 @@ export default defineConfig({
   },
   projects: [{ name: "chromium", use: { ...devices["Desktop Chrome"], channel: undefined } }],
   webServer: {
-    command: `npx next start -H 127.0.0.1 -p ${port}`,
+    command: `npx tsx scripts/serve.ts -H 127.0.0.1 -p ${port}`, // the production server, as npm start runs it
     url: `${baseURL}/api/health`,
     reuseExistingServer: false,
     timeout: 120_000,

@@ -17,4 +17,4 @@ npx tsx scripts/seed.ts | sed -n '/Demo sign-ins/,$p'
 echo
 echo "Yawpoint: http://localhost:$PORT  (mail sent in development: sign in as the admin, then Mail)"
 echo "Stop: Ctrl-C, then npm run db:stop to stop MariaDB."
-exec npx next start -H 127.0.0.1 -p "$PORT"
+exec npx tsx scripts/serve.ts -H 127.0.0.1 -p "$PORT"

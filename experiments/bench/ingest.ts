@@ -1,5 +1,5 @@
 // npm run bench:ingest — sequence uploads from 50 concurrent simulated sessions on loopback.
-// Starts `next start` on the built app (NEXT_DIST_DIR, PORT), creates a study with 50 invited
+// Starts the production server (scripts/serve.ts; WEB_CONCURRENCY processes) on the built app (NEXT_DIST_DIR, PORT), creates a study with 50 invited
 // participants directly in the database (DB_NAME), consents each through the API, then every
 // session sends its whole plan (34 sequences × 13 movements, a 10 s stream at 60 Hz each) one
 // batch after another, as the browser does, plus a repeat of every tenth batch (must be answered
@@ -26,14 +26,26 @@ const WARMUP_ROUNDS = Number(process.env.INGEST_WARMUP_ROUNDS ?? 1);
 const benchDesign: StudyDesignInput = { ...motionDesign, blocks: 2, task: { ...motionDesign.task, amplitudes: [300, 200], widths: [30, 60], sequencesPerAW: 2 } };
 const design = studyDesignSchema.parse(benchDesign);
 
-/** CPU seconds (user + system) of the process listening on `port` (the server), from /proc. */
+/** CPU seconds (user + system) of the server on `port`: the listening process and its children (the cluster's workers), from /proc. */
 function serverCpuSeconds(port: number): number | null {
   try {
     const out = execFileSync("ss", ["-ltnpH", `sport = :${port}`], { encoding: "utf8" });
-    const pid = /pid=(\d+)/.exec(out)?.[1];
-    if (!pid) return null;
-    const fields = readFileSync(`/proc/${pid}/stat`, "utf8").split(") ")[1]!.split(" ");
-    return (Number(fields[11]) + Number(fields[12])) / 100; // utime, stime in clock ticks (USER_HZ = 100)
+    const pids = new Set([...out.matchAll(/pid=(\d+)/g)].map((m) => m[1]!));
+    if (pids.size === 0) return null;
+    const children = (pid: string): string[] => {
+      try {
+        return readFileSync(`/proc/${pid}/task/${pid}/children`, "utf8").trim().split(/\s+/).filter(Boolean);
+      } catch {
+        return [];
+      }
+    };
+    for (const pid of [...pids]) for (const c of children(pid)) pids.add(c);
+    let ticks = 0;
+    for (const pid of pids) {
+      const fields = readFileSync(`/proc/${pid}/stat`, "utf8").split(") ")[1]!.split(" ");
+      ticks += Number(fields[11]) + Number(fields[12]); // utime, stime in clock ticks (USER_HZ = 100)
+    }
+    return ticks / 100;
   } catch {
     return null;
   }
