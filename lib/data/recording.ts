@@ -33,10 +33,6 @@ export function decodeStream(batch: SequenceBatch): Buffer {
 
 type Outcome = { outcome: "stored" | "duplicate" | "refused"; movements: number | string };
 
-/** The movement fields record_sequence reads with JSON_TABLE, in the trial table's names. */
-const movementJson = (batch: SequenceBatch): string =>
-  JSON.stringify(batch.movements.map((m) => ({ trial: m.trial, from_x: m.from_x, from_y: m.from_y, to_x: m.to_x, to_y: m.to_y, start_x: m.start_x, start_y: m.start_y, end_x: m.end_x, end_y: m.end_y, time_ms: m.time_ms, hit: m.hit })));
-
 /**
  * Stores one sequence upload (ingestSequenceBatch): its movements as trial rows and its stream,
  * compressed, in one transaction and one round trip to the database (the record_sequence
@@ -56,7 +52,9 @@ export async function ingestSequenceBatch(db: Knex, ctx: SessionContext, batch: 
   const gz = decodeStream(batch);
   const [sets] = (await db.raw("CALL record_sequence(?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)", [
     p.id, new Date(), batch.key, batch.condition, batch.conditionIndex, batch.block, batch.sequence, batch.practice ? 1 : 0,
-    batch.unit, batch.amplitude, batch.width, batch.stream.sampleCount, gz, JSON.stringify(batch.quality), movementJson(batch),
+    batch.unit, batch.amplitude, batch.width, batch.stream.sampleCount, gz, JSON.stringify(batch.quality),
+    JSON.stringify(batch.movements), // movementSchema is strict: exactly the fields record_sequence reads with JSON_TABLE
+
   ])) as [[Outcome[], unknown]];
   const answer = sets[0]?.[0];
   if (!answer) throw new Error("record_sequence answered no outcome");
