@@ -54,7 +54,6 @@ export async function ingestSequenceBatch(db: Knex, ctx: SessionContext, batch: 
     p.id, new Date(), batch.key, batch.condition, batch.conditionIndex, batch.block, batch.sequence, batch.practice ? 1 : 0,
     batch.unit, batch.amplitude, batch.width, batch.stream.sampleCount, gz, JSON.stringify(batch.quality),
     JSON.stringify(batch.movements), // movementSchema is strict: exactly the fields record_sequence reads with JSON_TABLE
-
   ])) as [[Outcome[], unknown]];
   const answer = sets[0]?.[0];
   if (!answer) throw new Error("record_sequence answered no outcome");
