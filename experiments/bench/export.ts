@@ -1,7 +1,8 @@
 // bench:export — a generated study of 100 participants with raw streams (about 1 M movements in
 // trials.csv, one gzip replay stream per sequence) is written under /tmp as plain files; then, in
-// the same run and alternating, (a) the archive writer exports it in a fresh process (trials read
-// line by line from the file, streams one at a time), (b) `zip -r` zips the same files. Reports
+// the same run and alternating, (a) the archive writer exports it in a fresh process started as the
+// server starts an export job (lib/data/exportProcess.ts: --max-old-space-size from
+// exportHeapLimitMb of the movement count; trials read line by line from the file, streams one at a time), (b) `zip -r` zips the same files. Reports
 // medians of wall time, MB/s over the input bytes, and peak RSS (GNU time), and checks the
 // export's peak RSS against 300 MB.
 // Scale with YAWPOINT_BENCH_PARTICIPANTS, YAWPOINT_BENCH_BLOCKS, YAWPOINT_BENCH_RUNS.
@@ -13,7 +14,7 @@ import { gzipSync } from "node:zlib";
 import { median } from "simple-statistics";
 import { generateTrialRows } from "../generate";
 import { writeTrialTable } from "../generate";
-import { writeArchive, type ArchiveSource, type ExportStream } from "../../lib/export";
+import { exportHeapLimitMb, writeArchive, type ArchiveSource, type ExportStream } from "../../lib/export";
 import { formatSampleCsv } from "../../lib/motion/csv";
 import { simulateSequence } from "../../lib/motion/simulate";
 import type { TrialRecord } from "../../lib/results";
@@ -115,9 +116,12 @@ if (process.argv[2] === "--child") {
   const out = process.argv[3]!;
   const t0 = performance.now();
   const pseudonyms = new Map(Array.from({ length: participants }, (_, i) => [i + 1, `r-${String(i + 1).padStart(3, "0")}`]));
-  const peaks = new Map<string, number>();
+  const peaks = new Map<string, NodeJS.MemoryUsage>();
   let current = "start";
-  const sample = (): void => void peaks.set(current, Math.max(peaks.get(current) ?? 0, process.memoryUsage.rss() / 1e6));
+  const sample = (): void => {
+    const m = process.memoryUsage();
+    if (m.rss > (peaks.get(current)?.rss ?? 0)) peaks.set(current, m);
+  };
   const sampler = setInterval(sample, 50); // between progress calls too (the central directory is written after the last one)
   const s = await writeArchive(fileSource(), { pseudonyms: "random", includeStreams: true, includeDates: false, includeFreeText: false }, pseudonyms, out, (_f, stage) => {
     sample();
@@ -125,7 +129,8 @@ if (process.argv[2] === "--child") {
     sample();
   });
   clearInterval(sampler);
-  if (process.env.YAWPOINT_BENCH_VERBOSE) process.stderr.write(`RSS by stage (MB): ${[...peaks].map(([k, v]) => `${k} ${v.toFixed(0)}`).join(", ")}; heap ${(process.memoryUsage().heapUsed / 1e6).toFixed(0)} MB\n`);
+  const mb = (n: number): string => (n / 1e6).toFixed(0);
+  if (process.env.YAWPOINT_BENCH_VERBOSE) process.stderr.write(`peak RSS by stage (MB; heap used/total, external, array buffers at that moment): ${[...peaks].map(([k, m]) => `${k} ${mb(m.rss)} (${mb(m.heapUsed)}/${mb(m.heapTotal)}, ${mb(m.external)}, ${mb(m.arrayBuffers)})`).join("; ")}\n`);
   process.stdout.write(JSON.stringify({ seconds: (performance.now() - t0) / 1000, bytes: s.sizeBytes, movements: s.movements, streams: s.streams }) + "\n");
 } else {
   await prepare();
@@ -136,7 +141,8 @@ if (process.argv[2] === "--child") {
   const zips: { s: number; rss: number; out: number }[] = [];
   for (let i = 0; i < runs; i++) {
     rmSync(`${dir}/ours.zip`, { force: true });
-    const a = spawnSync("/usr/bin/time", ["-f", "%e %M", process.execPath, "--import", "tsx", "--no-warnings", "experiments/bench/export.ts", "--child", `${dir}/ours.zip`], { encoding: "utf8", maxBuffer: 1 << 26 });
+    const heapMb = exportHeapLimitMb((JSON.parse(info) as { movements: number }).movements);
+    const a = spawnSync("/usr/bin/time", ["-f", "%e %M", process.execPath, `--max-old-space-size=${heapMb}`, "--import", "tsx", "--no-warnings", "experiments/bench/export.ts", "--child", `${dir}/ours.zip`], { encoding: "utf8", maxBuffer: 1 << 26 });
     if (a.status !== 0) throw new Error(`export failed: ${a.stderr}`);
     const lines = a.stderr.trim().split("\n");
     for (const l of lines.slice(0, -1)) console.log(`  child: ${l}`);
@@ -147,7 +153,7 @@ if (process.argv[2] === "--child") {
     if (z.status !== 0) throw new Error(`zip failed: ${z.stderr}`);
     const [sz, kz] = z.stderr.trim().split("\n").at(-1)!.split(" ").map(Number);
     zips.push({ s: sz!, rss: kz! / 1024, out: statSync(`${dir}/zip.zip`).size });
-    console.log(`run ${i + 1}: export ${sa!.toFixed(1)} s, ${(ka! / 1024).toFixed(0)} MB RSS; zip -r ${sz!.toFixed(1)} s, ${(kz! / 1024).toFixed(0)} MB RSS`);
+    console.log(`run ${i + 1}: export (heap cap ${heapMb} MB) ${sa!.toFixed(1)} s, ${(ka! / 1024).toFixed(0)} MB RSS; zip -r ${sz!.toFixed(1)} s, ${(kz! / 1024).toFixed(0)} MB RSS`);
   }
   const mo = median(ours.map((r) => r.s)), mz = median(zips.map((r) => r.s));
   const peak = Math.max(...ours.map((r) => r.rss));

@@ -161,7 +161,7 @@ export async function databaseArchiveSource(db: Knex, studyId: number): Promise<
 /**
  * Runs one export job to the end (runExportJob): writes the archive under EXPORTS_DIR, keeps the
  * job's progress in the database (at most every 300 ms), and records the result or the error.
- * Started without awaiting by the route handler; never throws.
+ * Run by scripts/export-job.ts in its own process (startExportProcess); never throws.
  */
 export async function runExportJob(db: Knex, jobId: number, actor: { id: number; label: string }): Promise<void> {
   const job = await fetchExportJob(db, jobId);

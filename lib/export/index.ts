@@ -16,3 +16,4 @@ export { sequenceRows, cellRows, conditionRows } from "./resultRows";
 export type { ArchiveSource, ExportParticipant, ExportAnswer, ExportStream } from "./source";
 export { writeArchive, K_ANONYMITY_THRESHOLD, type ArchiveSummary, type ProgressListener } from "./writeArchive";
 export { validateDataPackage, valueMatchesFieldType, dataPackageSchema, TABLE_SCHEMA_TYPES } from "./validateDataPackage";
+export { exportHeapLimitMb } from "./heapLimit";

@@ -11,7 +11,8 @@ import { FINISHED_STUDY } from "@/db/seeds/demo-finished-study";
 import { DEMO_PEOPLE } from "@/db/seeds/demo-scenario";
 import { seedDemo } from "@/db/seeds/demo";
 import { db } from "@/lib/db";
-import { databaseArchiveSource, fetchConsentRegister, pseudonymSecret } from "@/lib/data/exports";
+import { databaseArchiveSource, fetchConsentRegister, fetchExportFile, fetchExportJob, insertExportJob, pseudonymSecret } from "@/lib/data/exports";
+import { startExportProcess } from "@/lib/data/exportProcess";
 import { fetchResultsParticipants, fetchStudyDesign, fetchStudyTrialRecords } from "@/lib/data/results";
 import { randomPseudonyms, stablePseudonym, validateDataPackage, valueMatchesFieldType, writeArchive, type ExportOptions } from "@/lib/export";
 import { buildResultsView } from "@/lib/results";
@@ -210,4 +211,34 @@ describe("anonymised archive of the finished demo study", () => {
     expect(summary.sizeBytes).toBe(bytes.length);
     expect(summary.sha256).toBe(createHash("sha256").update(bytes).digest("hex"));
   });
+});
+
+describe("export jobs run in a process of their own", () => {
+  const owner = DEMO_PEOPLE.find((u) => u.role === "researcher")!;
+  const ownerId = async (): Promise<number> => (await db("users").where({ email: owner.email }).first<{ id: number }>("id")).id;
+
+  it("the job's process writes the archive, and the job records the file's SHA-256, size and k", async () => {
+    const actor = { id: await ownerId(), label: owner.email };
+    const jobId = await insertExportJob(db, { studyId, options: { pseudonyms: "random", includeStreams: true, includeDates: false, includeFreeText: false }, createdBy: actor.id });
+    await startExportProcess(db, jobId, actor);
+    const job = (await fetchExportJob(db, jobId))!;
+    expect(job.status, job.error ?? "").toBe("done");
+    const file = (await fetchExportFile(db, jobId))!;
+    const bytes = readFileSync(file.path!);
+    expect(job.sizeBytes).toBe(bytes.length);
+    expect(job.sha256).toBe(createHash("sha256").update(bytes).digest("hex"));
+    expect((await readZip(file.path!)).has("trials.csv")).toBe(true);
+    rmSync(file.path!);
+  }, 60_000);
+
+  it("a process that dies (here: out of memory under an 8 MB heap) leaves the job failed, saying so, and audit-logged", async () => {
+    const actor = { id: await ownerId(), label: owner.email };
+    const jobId = await insertExportJob(db, { studyId, options: { pseudonyms: "random", includeStreams: false, includeDates: false, includeFreeText: false }, createdBy: actor.id });
+    await startExportProcess(db, jobId, actor, 8);
+    const job = (await fetchExportJob(db, jobId))!;
+    expect(job.status).toBe("failed");
+    expect(job.error).toMatch(/the export process stopped/);
+    const audit = await db("audit_log").where({ action: "export.fail", study_id: studyId }).orderBy("id", "desc").first<{ details: unknown }>("details");
+    expect(JSON.stringify(audit?.details)).toContain(`"exportId":${jobId}`);
+  }, 60_000);
 });

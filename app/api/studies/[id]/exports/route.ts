@@ -3,7 +3,8 @@ import { parseParams, readJson } from "@/lib/api/body";
 import { route } from "@/lib/api/respond";
 import { db } from "@/lib/db";
 import { appendAudit } from "@/lib/data/audit";
-import { insertExportJob, listExportJobs, runExportJob } from "@/lib/data/exports";
+import { insertExportJob, listExportJobs } from "@/lib/data/exports";
+import { startExportProcess } from "@/lib/data/exportProcess";
 import { assertStudyTeam, fetchStudyDesign } from "@/lib/data/results";
 import { conflict } from "@/lib/errors";
 import { exportOptionsSchema } from "@/lib/export";
@@ -28,6 +29,6 @@ export const POST = route(async (request: Request, context: Ctx) => {
   if (!(await fetchStudyDesign(db, id))) throw conflict("The study has no design yet, so there is nothing to export.");
   const jobId = await insertExportJob(db, { studyId: id, options, createdBy: user!.id });
   await appendAudit(db, { actorUserId: user!.id, actorLabel: user!.email, action: "export.start", studyId: id, details: { exportId: jobId, options } });
-  void runExportJob(db, jobId, { id: user!.id, label: user!.email }); // in-process; progress goes to the database
+  void startExportProcess(db, jobId, { id: user!.id, label: user!.email }); // its own process; progress goes to the database
   return Response.json({ export: { id: jobId, status: "queued" } }, { status: 202 });
 });
