@@ -4,7 +4,7 @@ import { conflict, notFound, AppError, unprocessable } from "@/lib/errors";
 import { hashToken } from "@/lib/auth/tokens";
 import { appendAudit } from "@/lib/data/audit";
 import { studyDesignSchema, conditionConfig, conditionsOf, type StudyDesign } from "@/lib/study/design";
-import { orderForParticipant } from "@/lib/study/counterbalance";
+import { betweenLevelsFor, orderForParticipant } from "@/lib/study/counterbalance";
 import {
   deviceSummary, initialProgress, planSeedFor, planSession, progressSchema, qualityFlags, requiredStatementIds,
   type CalibrationRequest, type ConsentRequest, type DeviceRequest, type PlannedSequence, type Progress,
@@ -210,7 +210,7 @@ export async function recordConsent(db: Knex, ctx: SessionContext, input: Consen
     const index = Number(before[0]?.n ?? 0);
     const { row, order } = orderForParticipant(ctx.design, index);
     const orderLabels = order.map((i) => conditions[i]!.label);
-    const between = Object.fromEntries(ctx.design.betweenFactors.map((f) => [f.name, f.levels[index % f.levels.length]!]));
+    const between = betweenLevelsFor(ctx.design, index);
     await trx("consent_records").insert({
       participant_id: ctx.participant.id,
       consent_version_id: version.id,

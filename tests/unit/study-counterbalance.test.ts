@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { studyDesignSchema, conditionsOf, type StudyDesignInput } from "@/lib/study/design";
-import { allOrders, counterbalancingRows, cyclicRows, orderForParticipant, plannedRowsWarning, randomRows, williamsRows } from "@/lib/study/counterbalance";
+import { allOrders, betweenLevelsFor, counterbalancingRows, cyclicRows, orderForParticipant, plannedRowsWarning, randomRows, williamsRows } from "@/lib/study/counterbalance";
 
 const isPermutation = (row: number[], n: number) => [...row].sort((a, b) => a - b).every((v, i) => v === i) && row.length === n;
 
@@ -134,5 +134,51 @@ describe("counterbalancingRows and orderForParticipant on a design", () => {
     expect(plannedRowsWarning(12, 4)).toBeNull();
     expect(plannedRowsWarning(10, 4)).toBe("10 participants is not a multiple of the 4 orders: rows 1–2 get one more participant than rows 3–4. Plan 8 or 12.");
     expect(plannedRowsWarning(3, 6)).toContain("Plan 6.");
+  });
+});
+
+describe("betweenLevelsFor: between-subject groups crossed with the counterbalancing rows", () => {
+  // A full factorial crossing: every combination of the between factors' levels is a group, and
+  // counterbalancing is done within each group (common practice for mixed designs; from memory:
+  // MacKenzie 2013, Human-Computer Interaction: An Empirical Research Perspective, ch. 5).
+  const mixed = studyDesignSchema.parse({
+    factors: [{ name: "gain", levels: [{ label: "g2", config: {} }, { label: "g4", config: {} }, { label: "g6", config: {} }, { label: "g8", config: {} }] }],
+    betweenFactors: [{ name: "hand", levels: ["left", "right"] }, { name: "device", levels: ["phone", "tablet"] }],
+    task: { amplitudes: [256], widths: [32] },
+    counterbalancing: { method: "williams" },
+  });
+  const rows = counterbalancingRows(mixed).length; // Williams, 4 conditions: 4 rows
+
+  it("over rows × groups participants, every (group, order) pair occurs exactly once", () => {
+    const seen = new Set<string>();
+    for (let i = 0; i < rows * 4; i++) {
+      const levels = betweenLevelsFor(mixed, i);
+      seen.add(`${levels.hand}/${levels.device}/${orderForParticipant(mixed, i).row}`);
+    }
+    expect(rows).toBe(4);
+    expect(seen.size).toBe(rows * 4);
+  });
+
+  it("the two between factors are crossed, not confounded: all four combinations, equally often", () => {
+    const counts = new Map<string, number>();
+    for (let i = 0; i < 2 * rows * 4; i++) {
+      const l = betweenLevelsFor(mixed, i);
+      counts.set(`${l.hand}/${l.device}`, (counts.get(`${l.hand}/${l.device}`) ?? 0) + 1);
+    }
+    expect([...counts.keys()].sort()).toEqual(["left/phone", "left/tablet", "right/phone", "right/tablet"]);
+    expect(new Set(counts.values())).toEqual(new Set([2 * rows]));
+  });
+
+  it("the first `rows` participants form one group and take every order once", () => {
+    const first = Array.from({ length: rows }, (_, i) => betweenLevelsFor(mixed, i));
+    expect(new Set(first.map((l) => JSON.stringify(l))).size).toBe(1);
+    expect(new Set(Array.from({ length: rows }, (_, i) => orderForParticipant(mixed, i).row)).size).toBe(rows);
+    expect(betweenLevelsFor(mixed, rows)).not.toEqual(first[0]);
+  });
+
+  it("no between factors: no levels; a bad index is refused", () => {
+    const within = studyDesignSchema.parse({ factors: mixed.factors, task: { amplitudes: [256], widths: [32] }, counterbalancing: { method: "williams" } });
+    expect(betweenLevelsFor(within, 3)).toEqual({});
+    expect(() => betweenLevelsFor(mixed, -1)).toThrow(/whole-number/);
   });
 });

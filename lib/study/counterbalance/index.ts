@@ -6,3 +6,4 @@ export { seededUniform } from "./seededUniform";
 export { counterbalancingRows } from "./counterbalancingRows";
 export { orderForParticipant } from "./orderForParticipant";
 export { plannedRowsWarning } from "./plannedRowsWarning";
+export { betweenLevelsFor, betweenGroupCount } from "./betweenLevelsFor";

@@ -1,5 +1,6 @@
 import { conditionsOf, type StudyDesign } from "../design";
 import { counterbalancingRows } from "../counterbalance/counterbalancingRows";
+import { betweenGroupCount } from "../counterbalance/betweenLevelsFor";
 import { plannedRowsWarning } from "../counterbalance/plannedRowsWarning";
 
 export type OrderPreview = { rows: number; participants: { participant: number; row: number; order: string[] }[]; warning: string | null };
@@ -7,7 +8,8 @@ export type OrderPreview = { rows: number; participants: { participant: number; 
 /**
  * The condition order of participants 1..N (orderPreview), for the designer's preview table:
  * participant p (1-based) gets row (p − 1) mod rows (common practice), plus the warning when N
- * is not a multiple of the rows.
+ * is not a multiple of the rows, or, with between-subject groups, of rows × groups (every group
+ * takes every order: betweenLevelsFor).
  *
  * Cost: O(N · conditions).
  * @throws Error as counterbalancingRows (e.g. all orders with more than 4 conditions).
@@ -19,6 +21,14 @@ export function orderPreview(design: StudyDesign, participants = design.plannedP
   return {
     rows: rows.length,
     participants: Array.from({ length: participants }, (_, i) => ({ participant: i + 1, row: i % rows.length, order: rows[i % rows.length]!.map((c) => labels[c]!) })),
-    warning: plannedRowsWarning(participants, rows.length),
+    warning: groupsWarning(participants, rows.length, betweenGroupCount(design)) ?? plannedRowsWarning(participants, rows.length),
   };
+}
+
+/** The warning when N does not fill rows × between-subject groups evenly (null without groups or when it does). */
+function groupsWarning(planned: number, rows: number, groups: number): string | null {
+  const cycle = rows * groups;
+  if (groups <= 1 || planned % cycle === 0) return null;
+  const lower = planned - (planned % cycle);
+  return `${planned} participants does not fill the ${groups} between-subject groups × ${rows} orders (${cycle}) evenly: some group or order gets fewer. Plan ${lower > 0 ? `${lower} or ${lower + cycle}` : cycle}.`;
 }
