@@ -1,8 +1,11 @@
+import { readFileSync } from "node:fs";
+import { gunzipSync } from "node:zlib";
 import { expect, test } from "@playwright/test";
 import type { Knex } from "knex";
 import { analyzeTrials } from "../../lib/analysis";
 import type { TrialRow } from "../../lib/trials";
-import { mailTo } from "./helpers";
+import { readZip } from "../fixtures/readZip";
+import { demo, mailTo, signInWithForm } from "./helpers";
 import { createSessionStudy, fixtureDb, motionDesign, type SessionFixture } from "./fixtures/session-study";
 import { answerStep, completionCode, passChecks } from "./fixtures/session-flow";
 
@@ -16,6 +19,8 @@ const json = (v: unknown): Record<string, number> => (typeof v === "string" ? JS
 
 let db: Knex;
 let fx: SessionFixture;
+// the second test reads what the first one's session recorded
+test.describe.configure({ mode: "serial" });
 
 test.beforeAll(async () => {
   db = fixtureDb();
@@ -106,4 +111,43 @@ test("a whole session with the simulated participant: reload mid-block, offline 
     }, 0)) / seqs.length;
     expect(Math.abs(cell.tp - meanExpected), `${cell.condition}: TP ${cell.tp} vs expected ${meanExpected} ± ${se}`).toBeLessThan(3 * se);
   }
+});
+
+test("the study the session filled: its owner sees the results, exports the archive and downloads the consent register", async ({ page }) => {
+  test.setTimeout(120_000);
+  const owner = demo("researcher"); // the fixture's studies belong to the demo researcher
+  await signInWithForm(page, owner.email, owner.password);
+  await page.waitForURL(/\/studies/);
+  await page.goto(`/studies/${fx.studyId}/results`);
+  const tp = page.getByTestId("figure-tp");
+  await expect(tp).toBeVisible({ timeout: 30_000 });
+  for (const c of ["gain 2", "gain 3"]) await expect(tp.locator("svg")).toContainText(c);
+
+  await page.getByLabel(/raw sensor streams/).check();
+  const [posted] = await Promise.all([
+    page.waitForResponse((r) => r.url().endsWith(`/api/studies/${fx.studyId}/exports`) && r.request().method() === "POST"),
+    page.getByRole("button", { name: "Start export" }).click(),
+  ]);
+  const { export: job } = (await posted.json()) as { export: { id: number } };
+  const row = page.getByTestId(`export-${job.id}`);
+  await expect(row.getByText("done", { exact: true })).toBeVisible({ timeout: 45_000 });
+  const [download] = await Promise.all([page.waitForEvent("download"), row.getByRole("link", { name: "Download" }).click()]);
+  const files = await readZip(await download.path());
+  // 2 conditions × 2 measured sequences × 13 movements; practice is not in trials.csv; one stream per sequence, practice too
+  const trialLines = files.get("trials.csv")!.toString("utf8").trim().split("\n");
+  expect(trialLines).toHaveLength(1 + 2 * 2 * 13);
+  expect([...files.keys()].filter((n) => n.startsWith("streams/"))).toHaveLength(6);
+  const p = fx.participants[0]!;
+  for (const [name, bytes] of files) {
+    const text = (name.endsWith(".gz") ? gunzipSync(bytes) : bytes).toString("utf8");
+    for (const needle of [p.code, p.token, p.completionCode, "Alex Example", "alex@participant.example"]) expect(text.includes(needle), `${needle} in ${name}`).toBe(false);
+  }
+
+  await page.goto(`/studies/${fx.studyId}/consent`);
+  const [register] = await Promise.all([page.waitForEvent("download"), page.getByRole("link", { name: "Consent register (CSV)" }).click()]);
+  const csv = readFileSync(await register.path(), "utf8").trim().split("\n");
+  expect(csv).toHaveLength(2);
+  expect(csv[1]).toContain(p.code);
+  expect(csv[1]).toContain(fx.consentHash);
+  expect(csv[1]).toContain("Alex Example");
 });

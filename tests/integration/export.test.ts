@@ -5,7 +5,6 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { gunzipSync } from "node:zlib";
 import { parse } from "csv-parse/sync";
-import yauzl from "yauzl";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { FINISHED_STUDY } from "@/db/seeds/demo-finished-study";
 import { DEMO_PEOPLE } from "@/db/seeds/demo-scenario";
@@ -16,30 +15,7 @@ import { startExportProcess } from "@/lib/data/exportProcess";
 import { fetchResultsParticipants, fetchStudyDesign, fetchStudyTrialRecords } from "@/lib/data/results";
 import { randomPseudonyms, stablePseudonym, validateDataPackage, valueMatchesFieldType, writeArchive, type ExportOptions } from "@/lib/export";
 import { buildResultsView } from "@/lib/results";
-
-/** Every entry of a ZIP, read whole (test archives are small). */
-function readZip(path: string): Promise<Map<string, Buffer>> {
-  return new Promise((resolve, reject) => {
-    yauzl.open(path, { lazyEntries: true }, (err, zip) => {
-      if (err || !zip) return reject(err);
-      const out = new Map<string, Buffer>();
-      zip.on("entry", (e: yauzl.Entry) => {
-        zip.openReadStream(e, (err2, stream) => {
-          if (err2 || !stream) return reject(err2);
-          const parts: Buffer[] = [];
-          stream.on("data", (c: Buffer) => parts.push(c));
-          stream.on("end", () => {
-            out.set(e.fileName, Buffer.concat(parts));
-            zip.readEntry();
-          });
-        });
-      });
-      zip.on("end", () => resolve(out));
-      zip.on("error", reject);
-      zip.readEntry();
-    });
-  });
-}
+import { readZip } from "../fixtures/readZip";
 
 const dir = mkdtempSync(join(tmpdir(), "yawpoint-export-it-"));
 let studyId = 0;
