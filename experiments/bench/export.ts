@@ -139,9 +139,9 @@ if (process.argv[2] === "--child") {
   console.log(`input: ${(input / 1e6).toFixed(1)} MB in ${dir}/data (${info})`);
   const ours: { s: number; rss: number; out: number }[] = [];
   const zips: { s: number; rss: number; out: number }[] = [];
+  const heapMb = exportHeapLimitMb((JSON.parse(info) as { movements: number }).movements);
   for (let i = 0; i < runs; i++) {
     rmSync(`${dir}/ours.zip`, { force: true });
-    const heapMb = exportHeapLimitMb((JSON.parse(info) as { movements: number }).movements);
     const a = spawnSync("/usr/bin/time", ["-f", "%e %M", process.execPath, `--max-old-space-size=${heapMb}`, "--import", "tsx", "--no-warnings", "experiments/bench/export.ts", "--child", `${dir}/ours.zip`], { encoding: "utf8", maxBuffer: 1 << 26 });
     if (a.status !== 0) throw new Error(`export failed: ${a.stderr}`);
     const lines = a.stderr.trim().split("\n");

@@ -1,26 +1,10 @@
 import { createHash } from "node:crypto";
 import { readFileSync } from "node:fs";
 import { expect, test } from "@playwright/test";
-import yauzl from "yauzl";
 import { FINISHED_STUDY } from "../../db/seeds/demo-finished-study";
 import { DEMO_PEOPLE } from "../../db/seeds/demo-scenario";
+import { readZip } from "../fixtures/readZip";
 import { apiAs, apiAsRole, demo, signInWithForm } from "./helpers";
-
-function zipEntries(path: string): Promise<string[]> {
-  return new Promise((resolve, reject) => {
-    yauzl.open(path, { lazyEntries: true }, (err, zip) => {
-      if (err || !zip) return reject(err);
-      const names: string[] = [];
-      zip.on("entry", (e: yauzl.Entry) => {
-        names.push(e.fileName);
-        zip.readEntry();
-      });
-      zip.on("end", () => resolve(names));
-      zip.on("error", reject);
-      zip.readEntry();
-    });
-  });
-}
 
 test("a researcher opens the demo study's results, sees the plots, exports, watches progress and downloads", async ({ page }) => {
   const owner = demo("researcher");
@@ -62,7 +46,7 @@ test("a researcher opens the demo study's results, sees the plots, exports, watc
   const path = await download.path();
   const bytes = readFileSync(path);
   expect(createHash("sha256").update(bytes).digest("hex")).toBe(sha);
-  const names = await zipEntries(path);
+  const names = [...(await readZip(path)).keys()];
   for (const f of ["trials.csv", "sequences.csv", "cells.csv", "conditions.csv", "participants.csv", "questionnaires.csv", "datapackage.json", "codebook.md", "methods.md", "consent/consent-v1.md"]) expect(names).toContain(f);
   expect(names.filter((n) => n.startsWith("streams/")).length).toBe(12 * 4 * 9); // 8 sequences + 1 practice per condition
 

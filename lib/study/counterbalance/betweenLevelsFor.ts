@@ -24,11 +24,11 @@ export function betweenLevelsFor(design: StudyDesign, participantIndex: number):
   if (design.betweenFactors.length === 0) return {};
   const rows = counterbalancingRows(design).length;
   let group = Math.floor(participantIndex / rows) % betweenGroupCount(design);
-  const levels: Record<string, string> = {};
+  const picked: string[] = [];
   for (let k = design.betweenFactors.length - 1; k >= 0; k--) {
-    const f = design.betweenFactors[k]!;
-    levels[f.name] = f.levels[group % f.levels.length]!;
-    group = Math.floor(group / f.levels.length);
+    const { levels } = design.betweenFactors[k]!;
+    picked[k] = levels[group % levels.length]!;
+    group = Math.floor(group / levels.length);
   }
-  return Object.fromEntries(design.betweenFactors.map((f) => [f.name, levels[f.name]!]));
+  return Object.fromEntries(design.betweenFactors.map((f, k) => [f.name, picked[k]!]));
 }

@@ -21,14 +21,7 @@ export function orderPreview(design: StudyDesign, participants = design.plannedP
   return {
     rows: rows.length,
     participants: Array.from({ length: participants }, (_, i) => ({ participant: i + 1, row: i % rows.length, order: rows[i % rows.length]!.map((c) => labels[c]!) })),
-    warning: groupsWarning(participants, rows.length, betweenGroupCount(design)) ?? plannedRowsWarning(participants, rows.length),
+    warning: plannedRowsWarning(participants, rows.length, betweenGroupCount(design)),
   };
 }
 
-/** The warning when N does not fill rows × between-subject groups evenly (null without groups or when it does). */
-function groupsWarning(planned: number, rows: number, groups: number): string | null {
-  const cycle = rows * groups;
-  if (groups <= 1 || planned % cycle === 0) return null;
-  const lower = planned - (planned % cycle);
-  return `${planned} participants does not fill the ${groups} between-subject groups × ${rows} orders (${cycle}) evenly: some group or order gets fewer. Plan ${lower > 0 ? `${lower} or ${lower + cycle}` : cycle}.`;
-}
