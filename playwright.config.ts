@@ -7,7 +7,7 @@ const baseURL = `http://127.0.0.1:${port}`;
 export default defineConfig({
   testDir: "./tests/e2e",
   fullyParallel: false,
-  workers: 1,
+  workers: process.env.PW_WORKERS ? Number(process.env.PW_WORKERS) : 2,
   retries: 0,
   timeout: 60_000,
   reporter: [["list"], ["json", { outputFile: "reports/playwright.json" }]],
