@@ -116,9 +116,9 @@ export function TaskCanvas(props: { setup: TaskSetup; provider: InputProvider | 
       void gzipText(sampleStreamCsv(samples)).then((streamGzip) => cbRef.current.onFinished({ movements, samples, streamGzip, quality }));
     };
 
-    const select = (tMs: number): void => {
+    const select = (tMs: number, timedOut = false): void => {
       if (finished || recorder.finished) return;
-      const row = recorder.select(tMs, taskPoint());
+      const row = recorder.select(tMs, taskPoint(), { timedOut });
       dwellSince = null;
       if (row) cbRef.current.onMovement(row);
       if (recorder.finished) finish();
@@ -133,7 +133,7 @@ export function TaskCanvas(props: { setup: TaskSetup; provider: InputProvider | 
 
     const checkTimers = (tMs: number): void => {
       const limit = recorder.timeoutAt();
-      if (limit !== null && tMs >= limit) select(limit);
+      if (limit !== null && tMs >= limit) select(limit, true);
       if (setup.selection === "dwell") {
         if (insideNext()) {
           if (dwellSince === null) dwellSince = tMs;
@@ -149,11 +149,9 @@ export function TaskCanvas(props: { setup: TaskSetup; provider: InputProvider | 
       samples.push(s);
       const out = engine.push(s);
       if (out) {
-        if (out.recentered) {
-          const c = view ? layout.order[recorder.next] ?? { x: 0, y: 0 } : { x: w / 2, y: h / 2 };
-          pos.x = view ? c.x : w / 2;
-          pos.y = view ? c.y : h / 2;
-        }
+        // recenter resets the engine's orientation reference only: the aim stays where it is
+        if (out.recentered) recorder.noteRecenter();
+        if (clutchRef.current !== 0) recorder.noteClutch();
         pos.x += out.dx;
         pos.y += out.dy;
         if (!view) {

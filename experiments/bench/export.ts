@@ -88,7 +88,7 @@ function fileSource(): ArchiveSource {
         const f = line.split(",");
         yield {
           participant_id: ids.get(f[0]!)!, condition: label(f[1]!), block: Number(f[2]), sequence: Number(f[3]), trial: Number(f[4]), amplitude: Number(f[5]), width: Number(f[6]),
-          from_x: Number(f[7]), from_y: Number(f[8]), to_x: Number(f[9]), to_y: Number(f[10]), start_x: Number(f[11]), start_y: Number(f[12]), end_x: Number(f[13]), end_y: Number(f[14]), time_ms: Number(f[15]), hit: Number(f[16]),
+          from_x: Number(f[7]), from_y: Number(f[8]), to_x: Number(f[9]), to_y: Number(f[10]), start_x: Number(f[11]), start_y: Number(f[12]), end_x: Number(f[13]), end_y: Number(f[14]), time_ms: Number(f[15]), hit: Number(f[16]), timed_out: 0, recentered: 0, clutched: 0,
         };
       }
     },

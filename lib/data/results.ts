@@ -9,6 +9,7 @@ import type { ParticipantStatus, ResultsParticipant, TrialRecord } from "@/lib/r
 export const TRIAL_RECORD_COLUMNS = [
   "participant_id", "condition", "block", "sequence", "trial", "amplitude", "width",
   "from_x", "from_y", "to_x", "to_y", "start_x", "start_y", "end_x", "end_y", "time_ms", "hit",
+  "timed_out", "recentered", "clutched",
 ] as const;
 
 const parseJson = (v: unknown): unknown => (typeof v === "string" ? JSON.parse(v) : v);

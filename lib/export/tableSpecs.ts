@@ -1,4 +1,4 @@
-import { TRIAL_COLUMNS, FACTOR_PREFIX } from "../trials/columns";
+import { TRIAL_COLUMNS, FACTOR_PREFIX, FLAG_COLUMNS } from "../trials/columns";
 
 /** Table Schema field types used here (Frictionless Table Schema v1, "Types and formats"). */
 export type FieldType = "string" | "number" | "integer" | "boolean" | "datetime";
@@ -49,6 +49,12 @@ const TRIAL_FIELD_TEXT: Record<(typeof TRIAL_COLUMNS)[number], Omit<FieldSpec, "
   hit: { type: "integer", description: "1 if the selection fell inside the target, else 0", constraints: { enum: [0, 1] } },
 };
 
+const FLAG_FIELD_TEXT: Record<(typeof FLAG_COLUMNS)[number], string> = {
+  timed_out: "1 if the trial time limit ended the movement (the selection point is where the aim was then), else 0",
+  recentered: "1 if the participant recentred during the movement, else 0",
+  clutched: "1 if the clutch was engaged at some moment of the movement, else 0",
+};
+
 /** trials.csv: the trial table of the public interface, one row per movement, practice left out. */
 export function trialsTableSpec(unit: string, factorNames: readonly string[]): TableSpec {
   return {
@@ -61,6 +67,7 @@ export function trialsTableSpec(unit: string, factorNames: readonly string[]): T
         const { unit: u, ...rest } = TRIAL_FIELD_TEXT[name];
         return { name, ...rest, ...(u ? { unit: u === "coord" ? unit : u } : {}) };
       }),
+      ...FLAG_COLUMNS.map((name): FieldSpec => ({ name, type: "integer", description: FLAG_FIELD_TEXT[name], constraints: { enum: [0, 1] } })),
       ...factorFields(factorNames),
     ],
     primaryKey: ["participant", "condition", "block", "sequence", "trial"],

@@ -160,7 +160,7 @@ export async function writeArchive(
           const row: TrialRow & { line?: number } = trialRowFromRecord(rec, pseudonymOf(rec.participant_id), factors);
           row.line = ++line;
           acc.add(row);
-          chunk += formatTrialRow(row, factorNames) + "\n";
+          chunk += formatTrialRow(row, factorNames, true) + "\n";
           movements++;
           if (chunk.length > 65_536) {
             yield chunk;

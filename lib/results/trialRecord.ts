@@ -11,7 +11,13 @@ export interface TrialRecord extends MovementColumns {
   amplitude: number;
   width: number;
   hit: number | boolean;
+  /** Movement flags (trials.timed_out, recentered, clutched). */
+  timed_out: number | boolean;
+  recentered: number | boolean;
+  clutched: number | boolean;
 }
+
+const truthy = (v: number | boolean): boolean => v === true || Number(v) === 1;
 
 /**
  * A stored movement as the trial-table row the analysis reads (trialRowFromRecord), labelled
@@ -39,7 +45,10 @@ export function trialRowFromRecord(rec: TrialRecord, participant: string, factor
     endX: Number(rec.end_x),
     endY: Number(rec.end_y),
     timeMs: Number(rec.time_ms),
-    hit: rec.hit === true || Number(rec.hit) === 1,
+    hit: truthy(rec.hit),
+    timedOut: truthy(rec.timed_out),
+    recentered: truthy(rec.recentered),
+    clutched: truthy(rec.clutched),
     factors,
   };
 }

@@ -1,6 +1,8 @@
 import { z } from "zod";
 
 const finite = z.number().finite();
+/** A movement flag (interfaces.md trial table, optional columns): 0 when a client sends none. */
+const flag = z.union([z.literal(0), z.literal(1)]).default(0);
 
 /** One movement of an upload (the trial table columns that vary per movement). */
 export const movementSchema = z.strictObject({
@@ -9,6 +11,9 @@ export const movementSchema = z.strictObject({
   start_x: finite, start_y: finite, end_x: finite, end_y: finite,
   time_ms: finite,
   hit: z.union([z.literal(0), z.literal(1)]),
+  timed_out: flag,
+  recentered: flag,
+  clutched: flag,
 });
 
 /** Per-sequence data-quality figures, measured by the runner. */

@@ -8,7 +8,7 @@ export {
   visualDegreesToPixels, pixelsPerTaskUnit, trialUnit, type DisplayCalibration,
 } from "./calibration";
 export { projectDirection } from "./perspective";
-export { createSequenceRecorder, type SequenceRecorder, type RecordedMovement } from "./sequenceRecorder";
+export { createSequenceRecorder, type SequenceRecorder, type RecordedMovement, type SelectionCause } from "./sequenceRecorder";
 export { consentBlocks, requiredStatementIds, consentCopyText, DEFAULT_STATEMENT, type ConsentBlock } from "./consent";
 export { sequenceBatchSchema, movementSchema, sequenceQualitySchema, type SequenceBatch, type SequenceQuality, type Movement } from "./batch";
 export { batchProblems } from "./plausibility";

@@ -19,6 +19,12 @@ export const TRIAL_COLUMNS = [
   HIT_COLUMN,
 ] as const;
 
+/**
+ * Optional movement flags (interfaces.md): 1 when the trial ended by its time limit, or a recenter
+ * or clutch happened during the movement, else 0. Written after `hit`; read when present.
+ */
+export const FLAG_COLUMNS = ["timed_out", "recentered", "clutched"] as const;
+
 /** The required columns when coordinates are not available (legacy tables: width from error rate). */
 export const LEGACY_TRIAL_COLUMNS = [...TEXT_COLUMNS, ...INTEGER_COLUMNS, ...SIZE_COLUMNS, TIME_COLUMN, HIT_COLUMN] as const;
 

@@ -1,4 +1,4 @@
-import { COORDINATE_COLUMNS, FACTOR_PREFIX, INTEGER_COLUMNS, LEGACY_TRIAL_COLUMNS, TRIAL_COLUMNS } from "./columns";
+import { COORDINATE_COLUMNS, FACTOR_PREFIX, FLAG_COLUMNS, INTEGER_COLUMNS, LEGACY_TRIAL_COLUMNS, TRIAL_COLUMNS } from "./columns";
 import type { LegacyTrialRow, Located, TrialRow } from "./trialRow";
 import { decimalValue } from "./decimalValue";
 import { TrialTableError } from "./trialTableError";
@@ -42,6 +42,8 @@ export function makeRowReader(header: readonly string[], file: string, legacy: b
   const iTime = at("time_ms");
   const iHit = at("hit");
   const coords = legacy ? [] : COORDINATE_COLUMNS.map((c) => at(c));
+  // the movement flags are read only when all three columns are there (interfaces.md: optional)
+  const flags = !legacy && FLAG_COLUMNS.every((c) => index.has(c)) ? FLAG_COLUMNS.map((c) => at(c)) : null;
   const factorColumns = header
     .map((name, i) => ({ name: name.trim(), i }))
     .filter((h) => h.name.startsWith(FACTOR_PREFIX) && h.name.length > FACTOR_PREFIX.length)
@@ -65,6 +67,11 @@ export function makeRowReader(header: readonly string[], file: string, legacy: b
     const v = decimalValue(s);
     if (!Number.isFinite(v) || (v === 0 && s.trim().length === 0)) fail(line, i, `not a number: "${s}"`);
     return v;
+  };
+  const flag = (fields: readonly string[], line: number, i: number): boolean => {
+    const v = fields[i]!.trim();
+    if (v !== "0" && v !== "1") fail(line, i, `must be 0 or 1, got "${fields[i]}"`);
+    return v === "1";
   };
   const int = (fields: readonly string[], line: number, i: number): number => {
     const v = num(fields, line, i);
@@ -111,6 +118,16 @@ export function makeRowReader(header: readonly string[], file: string, legacy: b
     const hit = hitText === "1";
     // Explicit literals, no object spread: spreading here cost ~30 µs per row in V8 (measured).
     if (legacy) return { participant, condition, block, sequence, trial, amplitude, width, timeMs, hit, factors, line };
+    if (flags) {
+      return {
+        participant, condition, block, sequence, trial, amplitude, width, timeMs, hit, factors, line,
+        fromX: num(fields, line, coords[0]!), fromY: num(fields, line, coords[1]!),
+        toX: num(fields, line, coords[2]!), toY: num(fields, line, coords[3]!),
+        startX: num(fields, line, coords[4]!), startY: num(fields, line, coords[5]!),
+        endX: num(fields, line, coords[6]!), endY: num(fields, line, coords[7]!),
+        timedOut: flag(fields, line, flags[0]!), recentered: flag(fields, line, flags[1]!), clutched: flag(fields, line, flags[2]!),
+      };
+    }
     return {
       participant,
       condition,

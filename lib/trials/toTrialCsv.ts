@@ -1,24 +1,30 @@
-import { TRIAL_COLUMNS, FACTOR_PREFIX } from "./columns";
+import { TRIAL_COLUMNS, FACTOR_PREFIX, FLAG_COLUMNS } from "./columns";
 import type { TrialRow } from "./trialRow";
 
 function quote(text: string): string {
   return /[",\r\n]/.test(text) || text !== text.trim() ? `"${text.replace(/"/g, '""')}"` : text;
 }
 
-/** The header line of a trial table with the given factor names (f_NAME columns, in that order). */
-export function trialCsvHeader(factorNames: readonly string[]): string {
-  return [...TRIAL_COLUMNS, ...factorNames.map((f) => FACTOR_PREFIX + f)].map(quote).join(",");
+/**
+ * The header line of a trial table with the given factor names (f_NAME columns, in that order);
+ * with `flags`, the optional movement flag columns (timed_out, recentered, clutched) after hit.
+ */
+export function trialCsvHeader(factorNames: readonly string[], flags = false): string {
+  return [...TRIAL_COLUMNS, ...(flags ? FLAG_COLUMNS : []), ...factorNames.map((f) => FACTOR_PREFIX + f)].map(quote).join(",");
 }
 
+const flagCell = (v: boolean | undefined): string => (v ? "1" : "0");
+
 /**
- * Formats one movement as a trial-table CSV line (no line break), columns in TRIAL_COLUMNS order
- * then f_NAME for each factor name given. Numbers use JavaScript's shortest round-trip form.
+ * Formats one movement as a trial-table CSV line (no line break), columns in TRIAL_COLUMNS order,
+ * with `flags` the movement flags (a row without them writes 0), then f_NAME for each factor name
+ * given. Numbers use JavaScript's shortest round-trip form.
  *
  * Cost: O(columns).
  * @throws Error when the row lacks a level for one of the factor names.
  * @example formatTrialRow(row, ["technique"]) // "P01,motion-6,1,1,1,256,32,0,-128,0,128,1.5,-126,2,130,612.5,1,motion"
  */
-export function formatTrialRow(row: TrialRow, factorNames: readonly string[]): string {
+export function formatTrialRow(row: TrialRow, factorNames: readonly string[], flags = false): string {
   const factorValues = factorNames.map((f) => {
     const v = row.factors[f];
     if (v === undefined) throw new Error(`formatTrialRow requires a level for factor ${f}`);
@@ -42,18 +48,21 @@ export function formatTrialRow(row: TrialRow, factorNames: readonly string[]): s
     row.endY,
     row.timeMs,
     row.hit ? 1 : 0,
+    ...(flags ? [flagCell(row.timedOut), flagCell(row.recentered), flagCell(row.clutched)] : []),
     ...factorValues,
   ].join(",");
 }
 
 /**
  * A whole trial table as CSV text (header, one line per movement, "\n" line ends, final newline).
- * The factor columns are the union of the rows' factor names, sorted.
+ * The factor columns are the union of the rows' factor names, sorted; the flag columns are
+ * written when any row has a flag field.
  *
  * Cost: O(rows × columns).
  * @throws Error as formatTrialRow when a row lacks a factor another row has.
  */
 export function toTrialCsv(rows: readonly TrialRow[]): string {
   const names = [...new Set(rows.flatMap((r) => Object.keys(r.factors)))].sort();
-  return [trialCsvHeader(names), ...rows.map((r) => formatTrialRow(r, names))].join("\n") + "\n";
+  const flags = rows.some((r) => r.timedOut !== undefined || r.recentered !== undefined || r.clutched !== undefined);
+  return [trialCsvHeader(names, flags), ...rows.map((r) => formatTrialRow(r, names, flags))].join("\n") + "\n";
 }

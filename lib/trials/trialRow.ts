@@ -30,6 +30,10 @@ export const trialRowSchema = legacyTrialRowSchema.extend({
   startY: coordinate,
   endX: coordinate,
   endY: coordinate,
+  /** Movement flags (optional columns timed_out, recentered, clutched); absent when the table has none. */
+  timedOut: z.boolean().optional(),
+  recentered: z.boolean().optional(),
+  clutched: z.boolean().optional(),
 });
 
 export type LegacyTrialRow = z.infer<typeof legacyTrialRowSchema>;

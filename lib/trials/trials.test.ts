@@ -41,6 +41,16 @@ describe("trial table round trip", () => {
     expect(row!.factors).toEqual({ gain: "6" });
     expect(row!.endX).toBe(101);
     expect(row!.hit).toBe(true);
+    expect(row!.timedOut).toBeUndefined();
+  });
+  test("the optional movement flags (interfaces.md: timed_out, recentered, clutched, 1 or 0) are read when present and written back", async () => {
+    const text =
+      "participant,condition,block,sequence,trial,amplitude,width,from_x,from_y,to_x,to_y,start_x,start_y,end_x,end_y,time_ms,hit,timed_out,recentered,clutched\n" +
+      "P1,A,1,1,1,100,10,0,0,100,0,1,0,101,2,10000,0,1,0,1\n";
+    const rows = await read(text);
+    expect(rows[0]).toMatchObject({ timedOut: true, recentered: false, clutched: true });
+    expect(toTrialCsv(rows.map(({ line: _line, ...r }) => r))).toBe(text);
+    await expect(read(text.replace(",0,1,0,1\n", ",0,2,0,1\n"))).rejects.toThrow('t.csv:2:timed_out: must be 0 or 1, got "2"');
   });
 });
 

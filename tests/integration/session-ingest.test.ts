@@ -59,10 +59,10 @@ describe("ingestSequenceBatch", () => {
     const base = batchFor(design, ctx.participant.id, plan[1]!);
     // Awkward IEEE 754 doubles (0.1 + 0.2, 1/3, a subnormal-adjacent value): each must come back bit for bit.
     const odd = [0.1 + 0.2, 1 / 3, -1.23456789e-5, 2.2250738585072014e-308, 12345.678901234567];
-    const movements = base.movements.map((m, i) => ({ ...m, end_x: m.end_x + odd[i % odd.length]!, end_y: m.end_y - odd[(i + 2) % odd.length]!, time_ms: 700 + odd[(i + 1) % odd.length]! / 8, hit: (i % 4 === 3 ? 0 : 1) as 0 | 1 }));
+    const movements = base.movements.map((m, i) => ({ ...m, end_x: m.end_x + odd[i % odd.length]!, end_y: m.end_y - odd[(i + 2) % odd.length]!, time_ms: 700 + odd[(i + 1) % odd.length]! / 8, hit: (i % 4 === 3 ? 0 : 1) as 0 | 1, timed_out: (i === 5 ? 1 : 0) as 0 | 1, recentered: (i % 3 === 1 ? 1 : 0) as 0 | 1, clutched: (i % 5 === 2 ? 1 : 0) as 0 | 1 }));
     expect(await ingestSequenceBatch(db, ctx, { ...base, movements })).toEqual({ duplicate: false, movements: movements.length });
     const rows = await db("trials").where({ upload_key: base.key }).orderBy("trial");
-    expect(rows.map((r) => ({ trial: r.trial, from_x: r.from_x, from_y: r.from_y, to_x: r.to_x, to_y: r.to_y, start_x: r.start_x, start_y: r.start_y, end_x: r.end_x, end_y: r.end_y, time_ms: r.time_ms, hit: r.hit ? 1 : 0 }))).toEqual(movements);
+    expect(rows.map((r) => ({ trial: r.trial, from_x: r.from_x, from_y: r.from_y, to_x: r.to_x, to_y: r.to_y, start_x: r.start_x, start_y: r.start_y, end_x: r.end_x, end_y: r.end_y, time_ms: r.time_ms, hit: r.hit ? 1 : 0, timed_out: r.timed_out ? 1 : 0, recentered: r.recentered ? 1 : 0, clutched: r.clutched ? 1 : 0 }))).toEqual(movements);
     expect(rows.every((r) => r.participant_id === ctx.participant.id && r.condition === base.condition && r.block === base.block && r.sequence === base.sequence && r.amplitude === base.amplitude && r.width === base.width && r.unit === base.unit && !r.practice === !base.practice)).toBe(true);
     const stream = await db("sequence_streams").where({ upload_key: base.key }).first();
     expect(stream.movement_count).toBe(movements.length);

@@ -79,7 +79,7 @@ describe("coarsening", () => {
 describe("data package", () => {
   it("trials.csv's columns are the trial-table header of the public interface", () => {
     const spec = trialsTableSpec("px", ["gain", "technique"]);
-    expect(csvLine(spec.fields.map((f) => f.name))).toBe(trialCsvHeader(["gain", "technique"]));
+    expect(csvLine(spec.fields.map((f) => f.name))).toBe(trialCsvHeader(["gain", "technique"], true));
   });
   it("validates against Data Package v1 / Table Schema v1, and the validator rejects what the specification forbids", () => {
     const dp = buildDataPackage({ id: 3, title: "Gyro Study!", description: "d", created: new Date(0) }, [trialsTableSpec("mm", ["technique"]), sequencesTableSpec("mm")]);

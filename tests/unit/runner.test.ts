@@ -7,7 +7,7 @@ import { studyDesignSchema, conditionsOf } from "@/lib/study/design";
 import {
   BLIND_SPOT_ANGLE_DEG, ID1_CARD_WIDTH_MM, advanceProgress, batchProblems, consentBlocks, createSequenceRecorder, currentStep,
   deviceVerdict, initialProgress, isInsideTarget, pixelsPerMmFromCard, pixelsPerTaskUnit, planSession, projectDirection, qualityFlags,
-  requiredStatementIds, retryDelayMs, selectButtonFor, sequenceLayout, uploadKey, uploadOutcome, viewingDistanceFromBlindSpot,
+  requiredStatementIds, retryDelayMs, selectButtonFor, sequenceBatchSchema, sequenceLayout, uploadKey, uploadOutcome, viewingDistanceFromBlindSpot,
   visualDegreesToPixels, type Progress, type SequenceBatch,
 } from "@/lib/runner";
 
@@ -97,6 +97,21 @@ describe("sequence recorder", () => {
     });
     expect(() => r.select(1e9, { x: 0, y: 0 })).toThrow("select: the sequence is finished");
   });
+  it("flags a movement that timed out, or during which a recenter or the clutch happened (interfaces.md optional columns)", () => {
+    const r = createSequenceRecorder(sequenceLayout("ring", 5, 100, 10), 2000);
+    r.noteRecenter(); // before the first selection: no movement runs yet
+    r.noteClutch();
+    r.select(0, { x: 0, y: 0 });
+    const first = r.select(500, { x: 0, y: 0 })!;
+    expect([first.timed_out, first.recentered, first.clutched]).toEqual([0, 0, 0]);
+    r.noteRecenter();
+    const second = r.select(900, { x: 0, y: 0 })!;
+    expect([second.timed_out, second.recentered, second.clutched]).toEqual([0, 1, 0]);
+    r.noteClutch();
+    const third = r.select(2900, { x: 0, y: 0 }, { timedOut: true })!;
+    expect([third.timed_out, third.recentered, third.clutched, third.time_ms]).toEqual([1, 0, 1, 2000]);
+    expect([r.select(3500, { x: 0, y: 0 })!.clutched]).toEqual([0]);
+  });
   it("clamps a movement at the trial time limit and refuses time going backwards", () => {
     const r = createSequenceRecorder(sequenceLayout("ring", 5, 100, 10), 2000);
     r.select(1000, { x: 0, y: 0 });
@@ -148,10 +163,14 @@ describe("upload contract", () => {
   const good: SequenceBatch = {
     key: uploadKey(9, s), practice: s.practice, block: s.block, conditionIndex: s.conditionIndex, condition: s.condition, sequence: s.sequence,
     unit: "px", amplitude: s.amplitude, width: s.width,
-    movements: layout.order.slice(1).map((to, i) => ({ trial: i + 1, from_x: layout.order[i]!.x, from_y: layout.order[i]!.y, to_x: to.x, to_y: to.y, start_x: 0, start_y: 0, end_x: to.x, end_y: to.y, time_ms: 650, hit: 1 })),
+    movements: layout.order.slice(1).map((to, i) => ({ trial: i + 1, from_x: layout.order[i]!.x, from_y: layout.order[i]!.y, to_x: to.x, to_y: to.y, start_x: 0, start_y: 0, end_x: to.x, end_y: to.y, time_ms: 650, hit: 1, timed_out: 0, recentered: 0, clutched: 0 })),
     stream: { gzipBase64: "H4sI", sampleCount: 10 },
     quality: { sampleRateHz: 60, jitterSdMs: 1, gaps: 0, droppedSamples: 0, frameP99Ms: null },
   };
+  it("an upload from a page without the flags stores them as 0", () => {
+    const { timed_out: _t, recentered: _r, clutched: _c, ...old } = good.movements[0]!;
+    expect(sequenceBatchSchema.parse({ ...good, movements: [old] }).movements[0]).toMatchObject({ timed_out: 0, recentered: 0, clutched: 0 });
+  });
   it("keys are unique per session and sequence", () => {
     expect(uploadKey(9, s)).toBe(`9:m:1:0:1`);
     expect(new Set(plan.map((x) => uploadKey(9, x))).size).toBe(plan.length);
