@@ -26,7 +26,9 @@ export default defineConfig({
       NODE_ENV: "production",
       NEXTAUTH_URL: baseURL,
       NEXTAUTH_SECRET: process.env.NEXTAUTH_SECRET ?? "test-secret-not-for-production-0000",
-      PARTICIPANT_DATA_KEY: process.env.PARTICIPANT_DATA_KEY ?? "test-data-key-not-for-production-0000",
+      PARTICIPANT_DATA_KEY: process.env.PARTICIPANT_DATA_KEY ?? "development-only-participant-data-key",
+      // the keys the seed used: npm test exports its own; run by hand, the seed used the development defaults
+      AUDIT_KEY: process.env.AUDIT_KEY ?? "development-only-audit-key",
       DB_NAME: process.env.DB_NAME ?? "yawpoint_test",
       SMTP_PORT: process.env.SMTP_PORT ?? "2526",
       MAIL_FAKE_HTTP_PORT: process.env.MAIL_FAKE_HTTP_PORT ?? "2581",

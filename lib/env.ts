@@ -33,6 +33,10 @@ const schemaFor = (isDev: boolean) => z.object({
   PARTICIPANT_DATA_KEY: isDev
     ? z.string().min(16).default("development-only-participant-data-key")
     : z.string({ error: "PARTICIPANT_DATA_KEY is required outside development: set it to a long random string (npm start generates one in .data/data-key)" }).min(16, "PARTICIPANT_DATA_KEY must be at least 16 characters"),
+  /** Key of the audit chain's HMAC (lib/data/audit.ts); kept outside the database, so the database alone cannot forge entries. */
+  AUDIT_KEY: isDev
+    ? z.string().min(16).default("development-only-audit-key")
+    : z.string({ error: "AUDIT_KEY is required outside development: set it to a long random string (npm start generates one in .data/audit-key)" }).min(16, "AUDIT_KEY must be at least 16 characters"),
   STORAGE_DIR: z.string().default("./storage"),
   /** When set, protocol documents go to this S3-compatible bucket instead of STORAGE_DIR. */
   S3_BUCKET: z.string().optional(),

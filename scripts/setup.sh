@@ -21,12 +21,18 @@ ensure_chromium() {
 }
 
 ensure_secret() {
-  # A per-checkout random secret for local runs; set NEXTAUTH_SECRET yourself anywhere else.
+  # Per-checkout random secrets for local runs (the session secret, the participant data key and the
+  # audit chain's key, all outside the database); set them yourself anywhere else.
   mkdir -p .data
   if [ -z "${NEXTAUTH_SECRET:-}" ]; then
     [ -s .data/secret ] || node -e 'process.stdout.write(require("crypto").randomBytes(32).toString("base64url"))' > .data/secret
     NEXTAUTH_SECRET="$(cat .data/secret)"
     export NEXTAUTH_SECRET
+  fi
+  if [ -z "${AUDIT_KEY:-}" ]; then
+    [ -s .data/audit-key ] || node -e 'process.stdout.write(require("crypto").randomBytes(32).toString("base64url"))' > .data/audit-key
+    AUDIT_KEY="$(cat .data/audit-key)"
+    export AUDIT_KEY
   fi
   if [ -z "${PARTICIPANT_DATA_KEY:-}" ]; then
     [ -s .data/data-key ] || node -e 'process.stdout.write(require("crypto").randomBytes(32).toString("base64url"))' > .data/data-key

@@ -12,6 +12,9 @@ export MAIL_FAKE_HTTP_PORT="${TEST_MAIL_HTTP_PORT:-2581}"
 export PORT="${TEST_PORT:-3100}"
 export NEXTAUTH_URL="http://127.0.0.1:$PORT"
 export NEXTAUTH_SECRET="test-secret-$(date +%s)-not-for-production"
+# One set of keys for the seed, the integration tests and the server of this run.
+export AUDIT_KEY="test-audit-key-$(date +%s)-not-for-production"
+export PARTICIPANT_DATA_KEY="test-data-key-$(date +%s)-not-for-production"
 mkdir -p reports && rm -f reports/*.json
 
 set -e

@@ -70,12 +70,15 @@ export function ExportPanel({ studyId }: { studyId: number }) {
                       <progress max={1} value={j.progress} aria-label={`export ${j.id} progress`} />
                       <span>{Math.round(j.progress * 100)} % ({j.stage})</span>
                     </span>
-                  ) : j.status === "done" ? "done" : <span className="text-red-800">failed: {j.error}</span>}
+                  ) : j.status !== "done" ? <span className="text-red-800">failed: {j.error}</span>
+                    : j.supersededAt ? <span>superseded on {new Date(j.supersededAt).toLocaleDateString()}: {j.supersededReason ?? "withdrawn"}; its file is deleted</span>
+                    : j.fileDeletedAt ? <span>file deleted on {new Date(j.fileDeletedAt).toLocaleDateString()} (retention period over)</span>
+                    : "done"}
                 </td>
                 <td>{sizeText(j.sizeBytes)}</td>
                 <td><code className="break-all text-xs">{j.sha256 ?? "–"}</code></td>
                 <td>{j.kAnonymity ?? "–"}</td>
-                <td>{j.status === "done" && <a href={`/api/exports/${j.id}/download`} download>Download</a>}</td>
+                <td>{j.status === "done" && j.fileName && <a href={`/api/exports/${j.id}/download`} download>Download</a>}</td>
               </tr>
             ))}
           </tbody>

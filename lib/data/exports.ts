@@ -1,11 +1,11 @@
 import { randomBytes } from "node:crypto";
-import { mkdir } from "node:fs/promises";
-import { isAbsolute, join, resolve } from "node:path";
+import { mkdir, unlink } from "node:fs/promises";
+import { join } from "node:path";
 import type { Knex } from "knex";
 import type { Queryable } from "@/lib/db";
 import { appendAudit } from "@/lib/data/audit";
+import { exportsRoot, studyExportDir } from "@/lib/data/exportFiles";
 import { fetchStudyDesign, TRIAL_RECORD_COLUMNS } from "@/lib/data/results";
-import { env } from "@/lib/env";
 import {
   exportOptionsSchema, randomPseudonyms, stablePseudonym, writeArchive,
   type ArchiveSource, type ExportAnswer, type ExportOptions, type ExportParticipant, type ExportStream,
@@ -32,12 +32,18 @@ export type ExportJob = {
   startedAt: string | null;
   finishedAt: string | null;
   fileName: string | null;
+  /** Set when a participant in the archive was erased: the file is deleted and downloads are refused. */
+  supersededAt: string | null;
+  supersededReason: string | null;
+  /** Set when the file was deleted (superseded, or past the retention period). */
+  fileDeletedAt: string | null;
 };
 
 type ExportRow = {
   id: number; study_id: number; status: ExportStatus; progress: number; stage: string; options: unknown; path: string | null;
   sha256: string | null; size_bytes: number | string | null; k_anonymity: number | null; warnings: unknown; error: string | null;
   created_by: number; created_at: Date; started_at: Date | null; finished_at: Date | null; creator_name?: string;
+  superseded_at: Date | null; superseded_reason: string | null; file_deleted_at: Date | null;
 };
 
 const parseJson = (v: unknown): unknown => (typeof v === "string" ? JSON.parse(v) : v);
@@ -50,7 +56,8 @@ function toExportJob(r: ExportRow): ExportJob {
     sha256: r.sha256, sizeBytes: r.size_bytes === null ? null : Number(r.size_bytes), kAnonymity: r.k_anonymity,
     warnings: (parseJson(r.warnings) as string[] | null) ?? [], error: r.error, createdBy: r.creator_name ?? String(r.created_by),
     createdAt: r.created_at.toISOString(), startedAt: iso(r.started_at), finishedAt: iso(r.finished_at),
-    fileName: r.path ? `study-${r.study_id}-export-${r.id}.zip` : null,
+    fileName: r.path && !r.superseded_at ? `study-${r.study_id}-export-${r.id}.zip` : null,
+    supersededAt: iso(r.superseded_at), supersededReason: r.superseded_reason, fileDeletedAt: iso(r.file_deleted_at),
   };
 }
 
@@ -66,20 +73,20 @@ export async function fetchExportJob(q: Queryable, id: number): Promise<ExportJo
   return row ? toExportJob(row) : undefined;
 }
 
-/** The job's archive file on disk (absolute), or null while it is not done. */
-export async function fetchExportFile(q: Queryable, id: number): Promise<{ studyId: number; path: string | null; status: ExportStatus } | undefined> {
-  const row = await q("exports").where({ id }).first<{ study_id: number; path: string | null; status: ExportStatus } | undefined>("study_id", "path", "status");
+/**
+ * The job's archive file on disk (absolute), or null while it is not done, once it is superseded
+ * (a participant in it was erased) and once its file is deleted.
+ */
+export async function fetchExportFile(q: Queryable, id: number): Promise<{ studyId: number; path: string | null; status: ExportStatus; superseded: boolean; fileDeleted: boolean } | undefined> {
+  const row = await q("exports").where({ id }).first<{ study_id: number; path: string | null; status: ExportStatus; superseded_at: Date | null; file_deleted_at: Date | null } | undefined>("study_id", "path", "status", "superseded_at", "file_deleted_at");
   if (!row) return undefined;
-  return { studyId: row.study_id, status: row.status, path: row.path && row.status === "done" ? join(exportsRoot(), row.path) : null };
+  const offered = row.path !== null && row.status === "done" && row.superseded_at === null;
+  return { studyId: row.study_id, status: row.status, superseded: row.superseded_at !== null, fileDeleted: row.file_deleted_at !== null, path: offered ? join(exportsRoot(), row.path!) : null };
 }
 
 export async function listExportJobs(q: Queryable, studyId: number): Promise<ExportJob[]> {
   const rows = (await jobQuery(q).where("e.study_id", studyId).orderBy("e.id", "desc").limit(50)) as ExportRow[];
   return rows.map(toExportJob);
-}
-
-function exportsRoot(): string {
-  return isAbsolute(env.EXPORTS_DIR) ? env.EXPORTS_DIR : resolve(process.cwd(), env.EXPORTS_DIR);
 }
 
 /** The study's HMAC key for stable pseudonyms, created on first use. */
@@ -175,9 +182,9 @@ export async function runExportJob(db: Knex, jobId: number, actor: { id: number;
       const secret = await pseudonymSecret(db, job.studyId);
       pseudonyms = new Map(ids.map((id) => [id, stablePseudonym(secret, id)]));
     } else pseudonyms = randomPseudonyms(ids);
-    const relative = join(`study-${job.studyId}`, `export-${jobId}-${randomBytes(6).toString("hex")}.zip`);
+    const relative = join(studyExportDir(job.studyId), `export-${jobId}-${randomBytes(6).toString("hex")}.zip`);
     const absolute = join(exportsRoot(), relative);
-    await mkdir(join(exportsRoot(), `study-${job.studyId}`), { recursive: true });
+    await mkdir(join(exportsRoot(), studyExportDir(job.studyId)), { recursive: true });
     let lastWrite = 0;
     let pending: Promise<unknown> = Promise.resolve();
     const summary = await writeArchive(source, job.options, pseudonyms, absolute, (fraction, stage) => {
@@ -187,13 +194,23 @@ export async function runExportJob(db: Knex, jobId: number, actor: { id: number;
       pending = pending.then(() => db("exports").where({ id: jobId }).update({ progress: Math.min(0.99, fraction), stage })).catch(() => {});
     });
     await pending;
-    await db("exports").where({ id: jobId }).update({
-      status: "done", progress: 1, stage: "done", path: relative, sha256: summary.sha256, size_bytes: summary.sizeBytes,
-      k_anonymity: summary.kAnonymity.k, warnings: JSON.stringify(summary.warnings), finished_at: new Date(),
-    });
-    await appendAudit(db, {
-      actorUserId: actor.id, actorLabel: actor.label, action: "export.finish", studyId: job.studyId,
-      details: { exportId: jobId, sha256: summary.sha256, sizeBytes: summary.sizeBytes, files: summary.files.length, kAnonymity: summary.kAnonymity.k, options: job.options },
+    await db.transaction(async (trx) => {
+      // The archive names its participants (for erasure) under their row locks: an erasure that
+      // came while it was written fails the job here; one that comes later finds these rows.
+      const still = ids.length ? await trx("participants").whereIn("id", ids).whereNull("erased_at").forShare().pluck("id") : [];
+      if (still.length !== ids.length) throw new Error("a participant was erased while the archive was written; start a new export");
+      for (let i = 0; i < ids.length; i += 1000) await trx("export_participants").insert(ids.slice(i, i + 1000).map((participant_id) => ({ export_id: jobId, participant_id })));
+      await trx("exports").where({ id: jobId }).update({
+        status: "done", progress: 1, stage: "done", path: relative, sha256: summary.sha256, size_bytes: summary.sizeBytes,
+        k_anonymity: summary.kAnonymity.k, warnings: JSON.stringify(summary.warnings), finished_at: new Date(),
+      });
+      await appendAudit(trx, {
+        actorUserId: actor.id, actorLabel: actor.label, action: "export.finish", studyId: job.studyId,
+        details: { exportId: jobId, sha256: summary.sha256, sizeBytes: summary.sizeBytes, files: summary.files.length, kAnonymity: summary.kAnonymity.k, options: job.options },
+      });
+    }).catch(async (e: unknown) => {
+      await unlink(absolute).catch(() => {});
+      throw e;
     });
   } catch (err) {
     console.error(`export ${jobId} failed`, err);

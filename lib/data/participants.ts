@@ -1,12 +1,16 @@
 import type { Knex } from "knex";
 import type { Queryable } from "@/lib/db";
-import { conflict, notFound, AppError, unprocessable } from "@/lib/errors";
+import { conflict, notFound, unprocessable } from "@/lib/errors";
 import { hashToken } from "@/lib/auth/tokens";
+import { sha256Text } from "@/lib/consent/sha256Text";
 import { appendAudit } from "@/lib/data/audit";
+import { eraseParticipantWithin } from "@/lib/data/erasure";
+import { deleteExportFiles } from "@/lib/data/exportFiles";
+import { lockActiveParticipant, refusalFor, withdrawnError, ACTIVE_STATUSES } from "@/lib/data/participantLock";
 import { studyDesignSchema, conditionConfig, conditionsOf, type StudyDesign } from "@/lib/study/design";
 import { betweenLevelsFor, orderForParticipant } from "@/lib/study/counterbalance";
 import {
-  deviceSummary, initialProgress, planSeedFor, planSession, progressSchema, qualityFlags, requiredStatementIds,
+  deviceSummary, initialProgress, planSeedFor, planSession, progressSchema, qualityFlags, requiredStatementIds, uploadKey,
   type CalibrationRequest, type ConsentRequest, type DeviceRequest, type PlannedSequence, type Progress,
   type QuestionnaireRequest, type SessionState,
 } from "@/lib/runner";
@@ -40,8 +44,7 @@ export type SessionContext = {
   design: StudyDesign;
 };
 
-/** The withdrawn status answers uploads with 410 Gone: the session accepts no more data. */
-export const withdrawnError = () => new AppError(410, "withdrawn", "This session was withdrawn; no more data is accepted.");
+export { withdrawnError } from "@/lib/data/participantLock";
 
 const TOKEN_SHAPE = /^[A-Za-z0-9_-]{16,128}$/;
 
@@ -171,24 +174,28 @@ export async function fetchSessionState(q: Queryable, ctx: SessionContext): Prom
   };
 }
 
-/** Refuses any write to a withdrawn or finished session. */
+/**
+ * Refuses a write early, from the status read with the request (a cheap answer for the common
+ * case). Not the guard: the status may change before the write; every write checks it again under
+ * the participant row lock (lockActiveParticipant).
+ */
 export function assertWritable(ctx: SessionContext): void {
   if (ctx.participant.status === "withdrawn") throw withdrawnError();
   if (ctx.participant.status === "completed") throw conflict("This session is complete.");
 }
 
-/** Refuses a step that needs consent first. */
+/** Like assertWritable, for a step that needs consent first. */
 export function assertConsented(ctx: SessionContext): void {
-  assertWritable(ctx);
-  if (ctx.participant.status === "invited") throw conflict("Consent comes first.");
+  if (!ACTIVE_STATUSES.includes(ctx.participant.status)) throw refusalFor(ctx.participant.status);
 }
 
 /**
- * Records consent: checks the version is the approved one (by id and hash), every required
- * statement is ticked and the typed name is there when the study asks for it; stores the record
- * with server time and a coarse device summary; assigns the counterbalanced condition order
- * (the participant's index = how many consented before, under a lock on the study row) and the
- * between-subject levels (the same index, in rotation). Returns the order's labels.
+ * Records consent: checks the version is the approved one (by id and hash) and that its stored
+ * text still hashes to that value, every required statement is ticked and the typed name is there
+ * when the study asks for it; stores the record with server time and a coarse device summary;
+ * assigns the counterbalanced condition order (the participant's index = how many consented
+ * before, under a lock on the study row) and the between-subject levels (the same index, in
+ * rotation); audit-logs it in the same transaction. Returns the order's labels.
  */
 export async function recordConsent(db: Knex, ctx: SessionContext, input: ConsentRequest, userAgent: string | null): Promise<{ signedAt: Date; version: number; body: string; hash: string; order: string[] }> {
   assertWritable(ctx);
@@ -197,15 +204,17 @@ export async function recordConsent(db: Knex, ctx: SessionContext, input: Consen
   const version = await fetchApprovedConsent(db, ctx.study.id);
   if (!version) throw conflict("This study has no approved consent document yet.");
   if (version.id !== input.consentVersionId || version.sha256 !== input.versionHash) throw conflict("The consent document has changed; please read the current version.");
+  if (sha256Text(version.body_md) !== version.sha256) throw conflict("The consent document's stored text does not match its approved fingerprint, so consent cannot be recorded; please tell the research team.");
   const missing = requiredStatementIds(version.body_md).filter((id) => !input.agreed.includes(id));
   if (missing.length > 0) throw unprocessable(`Every statement must be ticked (missing: ${missing.join(", ")}).`);
   if (ctx.design.requireTypedName && !(input.typedName && input.typedName.length >= 2)) throw unprocessable("Type your name to sign.");
   const signedAt = new Date();
   const conditions = conditionsOf(ctx.design);
   const labels = await db.transaction(async (trx) => {
-    await trx("studies").where({ id: ctx.study.id }).forUpdate().first("id");
+    const study = await trx("studies").where({ id: ctx.study.id }).forUpdate().first<{ status: string } | undefined>("status");
+    if (study?.status !== "recruiting") throw conflict("This study is not recruiting at the moment.");
     const current = await trx<ParticipantRow>("participants").where({ id: ctx.participant.id }).forUpdate().first();
-    if (!current || current.status !== "invited") throw conflict("Consent is already recorded for this session.");
+    if (!current || current.status !== "invited") throw current?.status === "withdrawn" ? withdrawnError() : conflict("Consent is already recorded for this session.");
     const before = await trx("participants").where({ study_id: ctx.study.id }).whereNotNull("cb_row").count<{ n: number }[]>({ n: "*" });
     const index = Number(before[0]?.n ?? 0);
     const { row, order } = orderForParticipant(ctx.design, index);
@@ -220,7 +229,7 @@ export async function recordConsent(db: Knex, ctx: SessionContext, input: Consen
       signed_at: signedAt,
       device_summary: JSON.stringify(deviceSummary(userAgent, input.screenShortSidePx)),
     });
-    await trx("participants").where({ id: ctx.participant.id }).update({
+    await trx("participants").where({ id: ctx.participant.id, status: "invited" }).update({
       status: "consented",
       cb_row: row,
       condition_order: JSON.stringify(orderLabels),
@@ -229,98 +238,115 @@ export async function recordConsent(db: Knex, ctx: SessionContext, input: Consen
       last_activity_at: signedAt,
       progress: JSON.stringify({ ...initialProgress(), stage: "device" } satisfies Progress),
     });
+    await appendAudit(trx, { actorUserId: null, actorLabel: `participant ${ctx.participant.code}`, action: "participant.consented", studyId: ctx.study.id, details: { participant: ctx.participant.code, consentVersion: version.version, versionHash: version.sha256 } });
     return orderLabels;
   });
-  await appendAudit(db, { actorUserId: null, actorLabel: `participant ${ctx.participant.code}`, action: "participant.consented", studyId: ctx.study.id, details: { participant: ctx.participant.code, consentVersion: version.version, versionHash: version.sha256 } });
   return { signedAt, version: version.version, body: version.body_md, hash: version.sha256!, order: labels };
 }
 
 /** Stores the device check (coarse: input types, sensor rate, jitter; nothing identifying). */
-export async function saveDeviceCheck(q: Queryable, ctx: SessionContext, input: DeviceRequest): Promise<void> {
+export async function saveDeviceCheck(db: Knex, ctx: SessionContext, input: DeviceRequest): Promise<void> {
   assertConsented(ctx);
   const device = { inputs: input.inputs, sampleRateHz: input.sampleRateHz, jitterSdMs: input.jitterSdMs, sourceKind: input.sourceKind, verdict: input.verdict };
-  await q("participants").where({ id: ctx.participant.id }).update({ device: JSON.stringify(device), last_activity_at: new Date() });
-  await q("calibrations").insert({ participant_id: ctx.participant.id, kind: "device_check", result: JSON.stringify(device) });
+  await db.transaction(async (trx) => {
+    await lockActiveParticipant(trx, ctx.participant.id, { device: JSON.stringify(device) });
+    await trx("calibrations").insert({ participant_id: ctx.participant.id, kind: "device_check", result: JSON.stringify(device) });
+  });
 }
 
 /** Stores one calibration result (bias at rest, card scale, blind-spot distance). */
-export async function saveCalibration(q: Queryable, ctx: SessionContext, input: CalibrationRequest): Promise<void> {
+export async function saveCalibration(db: Knex, ctx: SessionContext, input: CalibrationRequest): Promise<void> {
   assertConsented(ctx);
   const { kind, ...result } = input;
-  await q("calibrations").insert({ participant_id: ctx.participant.id, kind, result: JSON.stringify(result) });
-  await q("participants").where({ id: ctx.participant.id }).update({ last_activity_at: new Date() });
+  await db.transaction(async (trx) => {
+    await lockActiveParticipant(trx, ctx.participant.id);
+    await trx("calibrations").insert({ participant_id: ctx.participant.id, kind, result: JSON.stringify(result) });
+  });
 }
 
-/** Stores the runner's resumable progress (only forwards: a stale tab cannot move it back). */
-export async function saveProgress(q: Queryable, ctx: SessionContext, progress: Progress): Promise<void> {
+/**
+ * Stores the runner's resumable progress, only forwards (a stale tab cannot move it back), and
+ * starts the session when the task begins: one UPDATE that locks the row, checks the status and
+ * compares the stored progress, so a racing withdrawal or completion is never overwritten.
+ */
+export async function saveProgress(db: Knex, ctx: SessionContext, progress: Progress): Promise<void> {
   assertConsented(ctx);
-  const stored = progressSchema.safeParse(jsonColumn(ctx.participant.progress));
-  if (stored.success && stored.data.done > progress.done) return;
-  const update: Record<string, unknown> = { progress: JSON.stringify(progress), last_activity_at: new Date() };
-  if (progress.stage === "task" && ctx.participant.status === "consented") {
-    update.status = "in_progress";
-    update.started_at = new Date();
-  }
-  await q("participants").where({ id: ctx.participant.id }).update(update);
+  const starts = progress.stage === "task" ? 1 : 0;
+  const now = new Date();
+  await db.transaction(async (trx) => {
+    await lockActiveParticipant(trx, ctx.participant.id, {
+      progress: trx.raw("IF(COALESCE(JSON_VALUE(progress, '$.done'), 0) > ?, progress, ?)", [progress.done, JSON.stringify(progress)]),
+      started_at: trx.raw("IF(status = 'consented' AND ? = 1, ?, started_at)", [starts, now]),
+      status: trx.raw("IF(status = 'consented' AND ? = 1, 'in_progress', status)", [starts]),
+    }, now);
+  });
 }
 
 /** Stores questionnaire answers (a repeat overwrites: the last answer counts). */
-export async function saveAnswers(q: Queryable, ctx: SessionContext, input: QuestionnaireRequest): Promise<void> {
+export async function saveAnswers(db: Knex, ctx: SessionContext, input: QuestionnaireRequest): Promise<void> {
   assertConsented(ctx);
   const known = input.condition === "" || conditionsOf(ctx.design).some((c) => c.label === input.condition);
   if (!known) throw unprocessable(`Unknown condition "${input.condition}".`);
   const rows = input.answers.map((a) => ({ participant_id: ctx.participant.id, condition: input.condition, item_id: a.itemId, value_int: a.valueInt, value_text: a.valueText }));
-  await q("questionnaire_answers").insert(rows).onConflict(["participant_id", "condition", "item_id"]).merge(["value_int", "value_text", "answered_at"]);
-  await q("participants").where({ id: ctx.participant.id }).update({ last_activity_at: new Date() });
+  await db.transaction(async (trx) => {
+    await lockActiveParticipant(trx, ctx.participant.id);
+    await trx("questionnaire_answers").insert(rows).onConflict(["participant_id", "condition", "item_id"]).merge(["value_int", "value_text", "answered_at"]);
+  });
 }
 
 /**
- * Withdraws the participant: no more data is accepted; the study's rule decides whether the
- * data recorded so far is erased (trials, streams, calibrations, answers). The consent record
- * stays in the register, marked withdrawn. Audit-logged either way.
+ * Withdraws the participant: no more data is accepted, mail logged for them is purged, and the
+ * study's rule decides whether everything recorded is erased (eraseParticipantWithin, in the same
+ * transaction) or kept (the consent record then stays in the register, marked withdrawn, and the
+ * participant's reason is kept with the participant, where an erasure can reach it). The audit
+ * log records the withdrawal and what was erased, never the reason.
  */
 export async function withdrawParticipant(db: Knex, ctx: SessionContext, reason?: string): Promise<{ erased: boolean }> {
-  if (ctx.participant.status === "withdrawn") return { erased: ctx.design.eraseOnWithdrawal };
   const erase = ctx.design.eraseOnWithdrawal;
-  const now = new Date();
-  const counts = await db.transaction(async (trx) => {
-    await trx("participants").where({ id: ctx.participant.id }).forUpdate().first("id");
-    const pid = ctx.participant.id;
-    let trials = 0, streams = 0;
-    if (erase) {
-      trials = await trx("trials").where({ participant_id: pid }).delete();
-      streams = await trx("sequence_streams").where({ participant_id: pid }).delete();
-      await trx("calibrations").where({ participant_id: pid }).delete();
-      await trx("questionnaire_answers").where({ participant_id: pid }).delete();
-    }
+  const pid = ctx.participant.id;
+  const actor = { userId: null, label: `participant ${ctx.participant.code}` };
+  const superseded = await db.transaction(async (trx) => {
+    const now = new Date();
+    const n = await trx("participants").where({ id: pid }).whereNot({ status: "withdrawn" })
+      .update({ status: "withdrawn", withdrawn_at: now, last_activity_at: now, withdrawal_reason: erase ? null : reason?.trim() || null });
+    if (n === 0) return [];
     await trx("consent_records").where({ participant_id: pid }).update({ withdrawn_at: now });
-    await trx("participants").where({ id: pid }).update({ status: "withdrawn", withdrawn_at: now, last_activity_at: now, ...(erase ? { device: null, progress: null } : {}) });
-    return { trials, streams };
+    await trx("outgoing_mail").where({ participant_id: pid }).delete();
+    await appendAudit(trx, { actorUserId: actor.userId, actorLabel: actor.label, action: "participant.withdrawn", studyId: ctx.study.id, details: { participant: ctx.participant.code, erased: erase } });
+    if (!erase) return [];
+    return (await eraseParticipantWithin(trx, pid, actor, now)).supersededExports;
   });
-  await appendAudit(db, {
-    actorUserId: null, actorLabel: `participant ${ctx.participant.code}`, action: "participant.withdrawn", studyId: ctx.study.id,
-    details: { participant: ctx.participant.code, erased: erase, trialsErased: counts.trials, streamsErased: counts.streams, ...(reason ? { reason } : {}) },
-  });
+  await deleteExportFiles(db, superseded);
   return { erased: erase };
 }
 
 /**
- * Completes the session once every measured sequence of the plan is stored on the server
- * (so no movement can be lost after the code is shown); returns the completion code.
+ * Completes the session once every measured sequence of the plan is stored on the server (so no
+ * movement can be lost after the code is shown; each was checked for plausibility when it came);
+ * returns the completion code. The status is read under the row lock and written back only if it
+ * is still active, so a racing withdrawal stays a withdrawal.
  */
 export async function completeSession(db: Knex, ctx: SessionContext): Promise<string> {
   if (ctx.participant.status === "completed" && ctx.participant.completion_code) return ctx.participant.completion_code;
   assertConsented(ctx);
   const plan = planOf(ctx);
   if (!plan) throw conflict("Consent comes first.");
-  const rows = await db("sequence_streams").where({ participant_id: ctx.participant.id, practice: false }).count<{ n: number }[]>({ n: "*" });
-  const stored = Number(rows[0]?.n ?? 0), planned = plan.filter((s) => !s.practice).length;
-  if (stored < planned) throw conflict(`${planned - stored} sequence(s) are still being sent.`);
-  if (!ctx.participant.completion_code) throw conflict("This session has no completion code; please contact the research team.");
-  const now = new Date();
-  await db("participants").where({ id: ctx.participant.id }).update({ status: "completed", completed_at: now, last_activity_at: now, progress: JSON.stringify({ ...(jsonColumn(ctx.participant.progress) as object), stage: "complete" }) });
-  await appendAudit(db, { actorUserId: null, actorLabel: `participant ${ctx.participant.code}`, action: "participant.completed", studyId: ctx.study.id, details: { participant: ctx.participant.code } });
-  return ctx.participant.completion_code;
+  return db.transaction(async (trx) => {
+    const row = await trx("participants").where({ id: ctx.participant.id }).forUpdate()
+      .first<{ status: string; completion_code: string | null; progress: unknown } | undefined>("status", "completion_code", "progress");
+    if (row?.status === "completed" && row.completion_code) return row.completion_code;
+    if (!row || !ACTIVE_STATUSES.includes(row.status as ParticipantRow["status"])) throw refusalFor(row?.status);
+    const stored = new Set(await trx("sequence_streams").where({ participant_id: ctx.participant.id, practice: false }).pluck("upload_key"));
+    const missing = plan.filter((s) => !s.practice && !stored.has(uploadKey(ctx.participant.id, s))).length;
+    if (missing > 0) throw conflict(`${missing} sequence(s) are still being sent.`);
+    if (!row.completion_code) throw conflict("This session has no completion code; please contact the research team.");
+    const now = new Date();
+    const n = await trx("participants").where({ id: ctx.participant.id }).whereIn("status", ACTIVE_STATUSES)
+      .update({ status: "completed", completed_at: now, last_activity_at: now, progress: JSON.stringify({ ...(jsonColumn(row.progress) as object), stage: "complete" }) });
+    if (n !== 1) throw refusalFor(row.status);
+    await appendAudit(trx, { actorUserId: null, actorLabel: `participant ${ctx.participant.code}`, action: "participant.completed", studyId: ctx.study.id, details: { participant: ctx.participant.code } });
+    return row.completion_code;
+  });
 }
 
 /** One row of the live monitor. */

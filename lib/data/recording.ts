@@ -2,7 +2,8 @@ import { gunzipSync } from "node:zlib";
 import type { Knex } from "knex";
 import { conflict, unprocessable } from "@/lib/errors";
 import { batchProblems, type SequenceBatch } from "@/lib/runner";
-import { planOf, withdrawnError, type SessionContext } from "./participants";
+import { refusalFor } from "./participantLock";
+import { assertConsented, planOf, type SessionContext } from "./participants";
 
 /** The largest decompressed stream accepted (bytes): ~10 minutes at 250 Hz. */
 export const MAX_STREAM_BYTES = 16 * 1024 * 1024;
@@ -39,12 +40,11 @@ type Outcome = { outcome: "stored" | "duplicate" | "refused"; movements: number 
  * procedure, db/migrations/20261202000100_create_record_sequence.ts). Idempotent: a repeat of the
  * same key stores nothing and answers duplicate. Refuses a withdrawn session (410, also when the
  * withdrawal came after `ctx` was read: the procedure checks the row under its lock), a session
- * without consent (409) and an implausible batch (422, with the problems).
+ * without consent or already complete (409) and an implausible batch (422, with the problems).
  */
 export async function ingestSequenceBatch(db: Knex, ctx: SessionContext, batch: SequenceBatch): Promise<IngestResult> {
   const p = ctx.participant;
-  if (p.status === "withdrawn") throw withdrawnError();
-  if (p.status === "invited") throw conflict("Consent comes first.");
+  assertConsented(ctx);
   const plan = planOf(ctx);
   if (!plan) throw conflict("Consent comes first.");
   const problems = batchProblems(batch, p.id, plan, ctx.design);
@@ -60,8 +60,7 @@ export async function ingestSequenceBatch(db: Knex, ctx: SessionContext, batch: 
   if (answer.outcome === "duplicate") return { duplicate: true, movements: 0 };
   if (answer.outcome === "refused") {
     const row = (await db("participants").where({ id: p.id }).first("status")) as { status: string } | undefined;
-    if (row?.status === "invited") throw conflict("Consent comes first.");
-    throw withdrawnError();
+    throw refusalFor(row?.status);
   }
   return { duplicate: false, movements: Number(answer.movements) };
 }

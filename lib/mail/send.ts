@@ -16,14 +16,26 @@ function transport(): nodemailer.Transporter {
   return globalForMail.yawpointMail;
 }
 
-export type OutgoingMessage = { to: string; subject: string; text: string; template: string };
+/**
+ * One message. `participantId` marks participant mail (invitations, consent copies): its log row
+ * names the participant instead of the address, so the mail log cannot re-identify an encrypted
+ * contact, and withdrawal and erasure purge it. Staff mail (resets, account invitations) logs
+ * the account's address.
+ */
+export type OutgoingMessage = { to: string; subject: string; text: string; template: string; participantId?: number };
 
 /**
  * Sends one message over SMTP and records it in outgoing_mail (status, message id or error).
  * @throws when the SMTP server refuses it; the failure is recorded first.
  */
 export async function sendMail(message: OutgoingMessage): Promise<void> {
-  const [id] = await db("outgoing_mail").insert({ to_address: message.to, subject: message.subject.slice(0, 250), template: message.template });
+  const participant = message.participantId !== undefined;
+  const [id] = await db("outgoing_mail").insert({
+    to_address: participant ? null : message.to,
+    participant_id: participant ? message.participantId : null,
+    subject: message.subject.slice(0, 250),
+    template: message.template,
+  });
   try {
     const info = await transport().sendMail({ from: env.MAIL_FROM, to: message.to, subject: message.subject, text: message.text });
     await db("outgoing_mail").where({ id }).update({ status: "sent", message_id: String(info.messageId).slice(0, 250), sent_at: db.fn.now(3) });

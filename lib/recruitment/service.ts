@@ -130,7 +130,7 @@ export async function createInvitations(db: Knex, user: SessionUser | null, stud
       return p;
     });
     const mail = invitationMail({ studyTitle: study.title, minutes, compensation: design?.compensation ?? "", link: p.link, researcher: user!.name });
-    await sendMail({ to: email, subject: mail.subject, text: mail.text, template: "study-invitation" });
+    await sendMail({ to: email, subject: mail.subject, text: mail.text, template: "study-invitation", participantId: p.id });
     made.push(p);
   }
   await auditAs(db, user!, "invitation.email", studyId, { count: made.length, codes: made.map((m) => m.code) });

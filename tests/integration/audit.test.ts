@@ -1,17 +1,35 @@
 import { createHash } from "node:crypto";
-import { afterAll, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { seedDemo } from "@/db/seeds/demo";
 import { db } from "@/lib/db";
-import { appendAudit, auditCanonical, auditHash, GENESIS_HASH, verifyAuditChain } from "@/lib/data/audit";
+import { appendAudit, auditCanonical, auditHash, fetchAuditHead, GENESIS_HASH, verifyAuditChain } from "@/lib/data/audit";
+import { env } from "@/lib/env";
+import { ownerDb } from "./ownerDb";
 
+const owner = ownerDb();
+
+beforeAll(async () => {
+  await seedDemo(db);
+});
 afterAll(async () => {
+  await owner.destroy();
   await db.destroy();
 });
 
+type Row = { id: number; at: Date; actor_user_id: number | null; actor_label: string; action: string; study_id: number | null; details: unknown; prev_hash: string; hash: string };
+const details = (r: Row): unknown => (typeof r.details === "string" ? JSON.parse(r.details) : r.details);
+
+async function resetLog(): Promise<void> {
+  await owner("audit_log").delete();
+  await owner("audit_head").where({ id: 1 }).update({ last_id: 0, hash: GENESIS_HASH, entries: 0 });
+}
+
 describe("audit chain", () => {
-  it("hashes SHA-256(prev ‖ canonical JSON): checked against Node's crypto on the FIPS 180-2 'abc' vector", () => {
-    // FIPS 180-2, Appendix B.1: SHA-256("abc")
-    expect(createHash("sha256").update("abc").digest("hex")).toBe("ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad");
-    expect(auditHash("a", "bc")).toBe("ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad");
+  it("is HMAC-SHA-256 over prev ‖ canonical JSON: RFC 4231 test cases 1 and 2, RFC 8785 canonical form", () => {
+    // RFC 4231 §4.2 (test case 1): key = 20 × 0x0b, data "Hi There"
+    expect(auditHash("\x0b".repeat(20), "Hi ", "There")).toBe("b0344c61d8db38535ca8afceaf0bf12b881dc200c9833da726e9376c2e32cff7");
+    // RFC 4231 §4.3 (test case 2): key "Jefe", data "what do ya want for nothing?"
+    expect(auditHash("Jefe", "what do ya want ", "for nothing?")).toBe("5bdcc146bf60754e6a042426089575c75a003f089d2739839dec58b964ec3843");
     // RFC 8785: keys sorted, no white space
     expect(auditCanonical({ at: new Date(0), actorUserId: 1, actorLabel: "x", action: "a", studyId: null, details: { b: 2, a: 1 } })).toBe(
       '{"action":"a","actorLabel":"x","actorUserId":1,"at":"1970-01-01T00:00:00.000Z","details":{"a":1,"b":2},"studyId":null}',
@@ -19,20 +37,73 @@ describe("audit chain", () => {
   });
 
   it("appends concurrently without forking, verifies intact, and names the first tampered entry", async () => {
-    await db("audit_log").delete();
+    await resetLog();
     await Promise.all(Array.from({ length: 40 }, (_, i) => appendAudit(db, { actorUserId: null, actorLabel: "system", action: "test.append", details: { i } })));
-    const rows = await db("audit_log").orderBy("id");
-    expect(rows[0].prev_hash).toBe(GENESIS_HASH);
-    for (let i = 1; i < rows.length; i++) expect(rows[i].prev_hash).toBe(rows[i - 1].hash);
-    expect(await verifyAuditChain(db)).toEqual({ intact: true, entries: 40 });
+    const rows = await owner<Row>("audit_log").orderBy("id");
+    expect(rows[0]!.prev_hash).toBe(GENESIS_HASH);
+    for (let i = 1; i < rows.length; i++) expect(rows[i]!.prev_hash).toBe(rows[i - 1]!.hash);
+    expect(await fetchAuditHead(db)).toEqual({ lastId: rows.at(-1)!.id, hash: rows.at(-1)!.hash, entries: 40 });
+    expect(await verifyAuditChain(db)).toMatchObject({ intact: true, entries: 40 });
 
-    const victim = rows[5];
-    await db("audit_log").where({ id: victim.id }).update({ details: JSON.stringify({ i: 999 }) });
+    const victim = rows[5]!;
+    await owner("audit_log").where({ id: victim.id }).update({ details: JSON.stringify({ i: 999 }) });
     expect(await verifyAuditChain(db)).toMatchObject({ intact: false, firstBrokenId: victim.id });
+    await owner("audit_log").where({ id: victim.id }).update({ details: JSON.stringify(details(victim)) });
+    expect(await verifyAuditChain(db)).toMatchObject({ intact: true, entries: 40 });
+    await owner("audit_log").where({ id: rows[28]!.id }).delete();
+    expect(await verifyAuditChain(db)).toMatchObject({ intact: false, firstBrokenId: rows[29]!.id });
+  });
 
-    await db("audit_log").where({ id: victim.id }).update({ details: JSON.stringify(typeof victim.details === "string" ? JSON.parse(victim.details) : victim.details) });
-    expect(await verifyAuditChain(db)).toEqual({ intact: true, entries: 40 });
-    await db("audit_log").where({ id: rows[28].id }).delete();
-    expect(await verifyAuditChain(db)).toMatchObject({ intact: false, firstBrokenId: rows[29].id });
+  it("refuses a history rewritten by someone with database access but without the key (edited, then re-chained with SHA-256 as before)", async () => {
+    await resetLog();
+    for (let i = 0; i < 5; i++) await appendAudit(db, { actorUserId: 7, actorLabel: "tomas@harbourview-lab.example", action: "consent_register.download", studyId: 1, details: { i } });
+    // The attack: blame someone else for entry 3 and recompute every hash after it the old way.
+    const rows = await owner<Row>("audit_log").orderBy("id");
+    let prev = GENESIS_HASH;
+    for (const r of rows) {
+      const label = r === rows[2] ? "priya@harbourview-lab.example" : r.actor_label;
+      const hash = createHash("sha256").update(prev + auditCanonical({ at: r.at, actorUserId: r.actor_user_id, actorLabel: label, action: r.action, studyId: r.study_id, details: details(r) }), "utf8").digest("hex");
+      await owner("audit_log").where({ id: r.id }).update({ actor_label: label, prev_hash: prev, hash });
+      prev = hash;
+    }
+    await owner("audit_head").where({ id: 1 }).update({ hash: prev });
+    expect(await verifyAuditChain(db)).toMatchObject({ intact: false, firstBrokenId: rows[0]!.id, reason: "its content does not match its hash" });
+    // The same rewrite under a guessed key fails as well; only AUDIT_KEY verifies.
+    expect((await verifyAuditChain(db, { key: "a-guessed-key-of-some-length" })).intact).toBe(false);
+    expect(env.AUDIT_KEY.length).toBeGreaterThanOrEqual(16);
+  });
+
+  it("shows entries removed from the end: by the head, and by a published head even when the head was moved back", async () => {
+    await resetLog();
+    for (let i = 0; i < 6; i++) await appendAudit(db, { actorUserId: null, actorLabel: "system", action: "test.append", details: { i } });
+    const published = await fetchAuditHead(db); // e.g. the daily head a reviewer keeps
+    const rows = await owner<Row>("audit_log").orderBy("id");
+    await owner("audit_log").where({ id: rows[5]!.id }).delete();
+    expect(await verifyAuditChain(db)).toMatchObject({ intact: false, reason: `the chain ends at entry ${rows[4]!.id}, but its head names entry ${rows[5]!.id}` });
+    await owner("audit_head").where({ id: 1 }).update({ last_id: rows[4]!.id, hash: rows[4]!.hash, entries: 5 });
+    expect((await verifyAuditChain(db)).intact).toBe(true); // consistent on its own ...
+    expect(await verifyAuditChain(db, { kept: [published] })).toMatchObject({ intact: false, firstBrokenId: rows[5]!.id, reason: "an entry named by a published head is missing" });
+  });
+
+  it("commits an entry with its action or not at all", async () => {
+    await resetLog();
+    const title = `Atomic ${Date.now()}`;
+    const ownerRow = await db("users").first<{ id: number }>("id");
+    await expect(db.transaction(async (trx) => {
+      await trx("studies").insert({ title, summary: "s", owner_id: ownerRow.id });
+      await appendAudit(trx, { actorUserId: null, actorLabel: "system", action: "study.create", details: { title } });
+      throw new Error("the action fails after its entry was written");
+    })).rejects.toThrow("the action fails");
+    expect(await db("studies").where({ title }).first()).toBeUndefined();
+    expect(await owner("audit_log").count({ n: "*" })).toEqual([{ n: 0 }]);
+    expect(await fetchAuditHead(db)).toEqual({ lastId: 0, hash: GENESIS_HASH, entries: 0 });
+    // and an entry that cannot be written takes its action down with it
+    await owner("audit_head").where({ id: 1 }).delete();
+    await expect(db.transaction(async (trx) => {
+      await trx("studies").insert({ title, summary: "s", owner_id: ownerRow.id });
+      await appendAudit(trx, { actorUserId: null, actorLabel: "system", action: "study.create", details: { title } });
+    })).rejects.toThrow(/audit head/);
+    expect(await db("studies").where({ title }).first()).toBeUndefined();
+    await owner("audit_head").insert({ id: 1, last_id: 0, hash: GENESIS_HASH, entries: 0 });
   });
 });

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { seedDemo } from "@/db/seeds/demo";
 import { db } from "@/lib/db";
 import { AppError } from "@/lib/errors";
-import { fetchSessionByToken, recordConsent, withdrawParticipant, planOf, type SessionContext } from "@/lib/data/participants";
+import { completeSession, fetchSessionByToken, recordConsent, withdrawParticipant, planOf, type SessionContext } from "@/lib/data/participants";
 import { ingestSequenceBatch } from "@/lib/data/recording";
 import { forgetUploadSession, requireUploadSession } from "@/lib/data/uploadSessions";
 import { studyDesignSchema } from "@/lib/study/design";
@@ -109,6 +109,19 @@ describe("ingestSequenceBatch", () => {
     expect(await status(ingestSequenceBatch(db, stale, batchFor(design, ctx.participant.id, plan[1]!)))).toBe(410);
     forgetUploadSession(token);
     expect((await requireUploadSession(db, token)).participant.status).toBe("withdrawn");
+  });
+
+  it("refuses uploads from a completed session (409), even from a request that read the session before completion", async () => {
+    const extra = await createSessionStudy(db, "Ingest after completion", motionDesign, 1);
+    const ctx = (await fetchSessionByToken(db, extra.participants[0]!.token))!;
+    await recordConsent(db, ctx, { consentVersionId: extra.consentVersionId, versionHash: extra.consentHash, agreed: ["s1", "s2", "s3"], typedName: "Robin Example", screenShortSidePx: 700 }, null);
+    const live = (await fetchSessionByToken(db, extra.participants[0]!.token))!;
+    const plan = planOf(live)!;
+    for (const s of plan.filter((x) => !x.practice)) await ingestSequenceBatch(db, live, batchFor(design, live.participant.id, s));
+    await completeSession(db, live);
+    const practice = plan.find((x) => x.practice)!;
+    expect(await status(ingestSequenceBatch(db, live, batchFor(design, live.participant.id, practice)))).toBe(409);
+    expect(await db("sequence_streams").where({ participant_id: live.participant.id, practice: true }).count({ n: "*" })).toEqual([{ n: 0 }]);
   });
 
   it("keeps earlier data on withdrawal when the study's rule says keep", async () => {

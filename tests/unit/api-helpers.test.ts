@@ -75,7 +75,8 @@ describe("tokens", () => {
 describe("environment", () => {
   it("needs NEXTAUTH_SECRET in production and names it when missing", () => {
     expect(() => parseEnv({ NODE_ENV: "production" })).toThrow(/NEXTAUTH_SECRET is required outside development/);
-    expect(parseEnv({ NODE_ENV: "production", NEXTAUTH_SECRET: "0123456789abcdef0123", PARTICIPANT_DATA_KEY: "0123456789abcdef0123" }).NODE_ENV).toBe("production");
+    expect(() => parseEnv({ NODE_ENV: "production", NEXTAUTH_SECRET: "0123456789abcdef0123", PARTICIPANT_DATA_KEY: "0123456789abcdef0123" })).toThrow(/AUDIT_KEY is required outside development/);
+    expect(parseEnv({ NODE_ENV: "production", NEXTAUTH_SECRET: "0123456789abcdef0123", PARTICIPANT_DATA_KEY: "0123456789abcdef0123", AUDIT_KEY: "0123456789abcdef0123" }).NODE_ENV).toBe("production");
     expect(parseEnv({ NODE_ENV: "development" }).NEXTAUTH_SECRET.length).toBeGreaterThanOrEqual(16);
     expect(() => parseEnv({ NODE_ENV: "development", DB_PORT: "not-a-port" })).toThrow(/DB_PORT/);
     expect(parseEnv({ DB_PORT: "3310" }).DB_PORT).toBe(3310);

@@ -8,7 +8,7 @@ import { db } from "@/lib/db";
 import { appendAudit } from "@/lib/data/audit";
 import { fetchExportFile, fetchExportJob } from "@/lib/data/exports";
 import { assertStudyTeam } from "@/lib/data/results";
-import { conflict, notFound, unauthorized } from "@/lib/errors";
+import { AppError, conflict, notFound, unauthorized } from "@/lib/errors";
 import { getCurrentUser } from "@/lib/session";
 
 type Ctx = { params: Promise<{ exportId: string }> };
@@ -22,6 +22,8 @@ export const GET = route(async (_request: Request, context: Ctx) => {
   const file = await fetchExportFile(db, exportId);
   if (!file) throw notFound("No such export.");
   await assertStudyTeam(db, user, file.studyId);
+  if (file.superseded) throw new AppError(410, "superseded", "This archive is superseded: a participant in it was erased, so its file was deleted. Start a new export.");
+  if (file.fileDeleted) throw new AppError(410, "deleted", "This archive's file was deleted at the end of its retention period. Start a new export.");
   if (!file.path) throw conflict(file.status === "failed" ? "This export failed; start a new one." : "This export is not finished yet.");
   const job = await fetchExportJob(db, exportId);
   const size = (await stat(file.path)).size;

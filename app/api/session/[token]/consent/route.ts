@@ -25,7 +25,7 @@ export const POST = route(async (request: Request, context: { params: Promise<{ 
   if (body.email) {
     const mail = consentCopyText({ studyTitle: ctx.study.title, version: result.version, hash: result.hash, signedAt: result.signedAt, body: result.body, withdrawLink: `${env.NEXTAUTH_URL}/s/${token}` });
     try {
-      await sendMail({ to: body.email, subject: mail.subject, text: mail.text, template: "consent-copy" });
+      await sendMail({ to: body.email, subject: mail.subject, text: mail.text, template: "consent-copy", participantId: ctx.participant.id });
       copySent = true;
     } catch {
       copySent = false; // recorded as failed in outgoing_mail; consent stands
