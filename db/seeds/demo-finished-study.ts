@@ -152,7 +152,7 @@ export async function seedFinishedStudy(db: Knex, userIds: ReadonlyMap<string, n
       const participantId = Number(pid);
       await trx("consent_records").insert({
         participant_id: participantId, consent_version_id: Number(consentId), version_hash: consentHash,
-        agreed: JSON.stringify(["take-part", "recording", "open-data"]), typed_name: null, signed_at: new Date(started.getTime() - 60_000),
+        agreed: JSON.stringify(["take-part", "recording", "open-data"]), signed_at: new Date(started.getTime() - 60_000),
         device_summary: JSON.stringify({ deviceClass: "phone", browserFamily: "mobile", screenBand: "small" }),
       });
       // the phone profile's bias, as the session's rest calibration would find it; the engine subtracts it

@@ -59,7 +59,7 @@ export const PARTICIPANT_COLUMNS: Readonly<Record<string, ColumnFate>> = {
 export const CONSENT_RECORD_COLUMNS: Readonly<Record<string, ColumnFate>> = {
   id: "keep", participant_id: "keep", consent_version_id: "keep", version_hash: "keep", agreed: "keep",
   signed_at: "day", withdrawn_at: "set", erased_at: "set",
-  typed_name: "clear", device_summary: "clear",
+  typed_name_encrypted: "clear", device_summary: "clear",
 };
 
 /** Who asked for the erasure: a signed-in user (the owner), or the participant through their link. */

@@ -10,6 +10,7 @@ import {
   exportOptionsSchema, randomPseudonyms, stablePseudonym, writeArchive,
   type ArchiveSource, type ExportAnswer, type ExportOptions, type ExportParticipant, type ExportStream,
 } from "@/lib/export";
+import { openWithDataKey } from "@/lib/recruitment/dataKey";
 import type { TrialRecord } from "@/lib/results";
 
 export type ExportStatus = "queued" | "running" | "done" | "failed";
@@ -219,20 +220,37 @@ export async function runExportJob(db: Knex, jobId: number, actor: { id: number;
   }
 }
 
-/** The identified consent register of a study: one row per consent record. */
-export async function fetchConsentRegister(q: Queryable, studyId: number): Promise<
-  { participantCode: string; status: string; version: number; versionHash: string; documentHash: string | null; signedAt: Date; withdrawnAt: Date | null; typedName: string | null; agreed: string[] }[]
-> {
+/** One row of the identified consent register (typed name decrypted; see consentRegisterCsv). */
+export type ConsentRegisterRecord = {
+  participantCode: string; status: string; version: number; versionHash: string; documentHash: string | null;
+  signedAt: Date; withdrawnAt: Date | null; erasedAt: Date | null; typedName: string | null; agreed: string[];
+};
+
+/**
+ * The identified consent register of a study: one row per consent record, the typed name
+ * decrypted (it is stored encrypted; a name that cannot be decrypted shows as such, never as the
+ * stored text). Erased participants keep a row without name and with the day of signing only.
+ */
+export async function fetchConsentRegister(q: Queryable, studyId: number): Promise<ConsentRegisterRecord[]> {
   const rows = await q("consent_records as r")
     .join("participants as p", "p.id", "r.participant_id")
     .join("consent_versions as v", "v.id", "r.consent_version_id")
     .where("p.study_id", studyId)
     .orderBy("r.signed_at")
-    .select<{ code: string; status: string; version: number; version_hash: string; sha256: string | null; signed_at: Date; withdrawn_at: Date | null; p_withdrawn: Date | null; typed_name: string | null; agreed: unknown }[]>(
-      "p.code", "p.status", "v.version", "r.version_hash", "v.sha256", "r.signed_at", "r.withdrawn_at", "p.withdrawn_at as p_withdrawn", "r.typed_name", "r.agreed",
+    .select<{ code: string; status: string; version: number; version_hash: string; sha256: string | null; signed_at: Date; withdrawn_at: Date | null; p_withdrawn: Date | null; erased_at: Date | null; typed_name_encrypted: string | null; agreed: unknown }[]>(
+      "p.code", "p.status", "v.version", "r.version_hash", "v.sha256", "r.signed_at", "r.withdrawn_at", "p.withdrawn_at as p_withdrawn", "r.erased_at", "r.typed_name_encrypted", "r.agreed",
     );
   return rows.map((r) => ({
     participantCode: r.code, status: r.status, version: r.version, versionHash: r.version_hash, documentHash: r.sha256,
-    signedAt: r.signed_at, withdrawnAt: r.withdrawn_at ?? r.p_withdrawn, typedName: r.typed_name, agreed: (parseJson(r.agreed) as string[] | null) ?? [],
+    signedAt: r.signed_at, withdrawnAt: r.withdrawn_at ?? r.p_withdrawn, erasedAt: r.erased_at, typedName: openTypedName(r.typed_name_encrypted), agreed: (parseJson(r.agreed) as string[] | null) ?? [],
   }));
+}
+
+function openTypedName(sealed: string | null): string | null {
+  if (sealed === null) return null;
+  try {
+    return openWithDataKey(sealed);
+  } catch {
+    return "(cannot be decrypted with this server's key)";
+  }
 }

@@ -6,6 +6,7 @@ import { sha256Text } from "@/lib/consent/sha256Text";
 import { appendAudit } from "@/lib/data/audit";
 import { eraseParticipantWithin } from "@/lib/data/erasure";
 import { deleteExportFiles } from "@/lib/data/exportFiles";
+import { sealWithDataKey } from "@/lib/recruitment/dataKey";
 import { lockActiveParticipant, refusalFor, withdrawnError, ACTIVE_STATUSES } from "@/lib/data/participantLock";
 import { studyDesignSchema, conditionConfig, conditionsOf, type StudyDesign } from "@/lib/study/design";
 import { betweenLevelsFor, orderForParticipant } from "@/lib/study/counterbalance";
@@ -225,7 +226,7 @@ export async function recordConsent(db: Knex, ctx: SessionContext, input: Consen
       consent_version_id: version.id,
       version_hash: version.sha256,
       agreed: JSON.stringify(input.agreed),
-      typed_name: ctx.design.requireTypedName ? input.typedName ?? null : null,
+      typed_name_encrypted: ctx.design.requireTypedName && input.typedName ? sealWithDataKey(input.typedName) : null,
       signed_at: signedAt,
       device_summary: JSON.stringify(deviceSummary(userAgent, input.screenShortSidePx)),
     });

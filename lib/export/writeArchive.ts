@@ -252,6 +252,7 @@ export async function writeArchive(
       `k-anonymity of participants.csv over ${k.quasiIdentifiers.join(", ")}: k = ${k.k}${k.k < K_ANONYMITY_THRESHOLD ? ` (below ${K_ANONYMITY_THRESHOLD}: take care)` : ""}.`,
       "Consent records are not in the archive; the consent documents' texts are, under consent/.",
       "Withdrawn participants are left out.",
+      "Text cells that would begin with =, +, -, @, a tab or a carriage return begin with a single quote (') instead, so that a spreadsheet shows them as text and never runs them as formulas (OWASP, CSV Injection); numbers are never changed. Remove that quote before comparing such labels or answers with the study's own.",
     ];
     const streamSection = options.includeStreams
       ? ["## streams/", "", "One gzip file per sequence, `streams/<participant>/b<block>-c<condition number>-s<sequence>.csv.gz`, in the raw sensor stream format: `t_ms, gyro_x, gyro_y, gyro_z` (deg/s about the device axes of the W3C Device Orientation and Motion specification), `accel_x, accel_y, accel_z` (m/s², including gravity), `stick_x, stick_y` (−1..1), `buttons` (bitmask), `screen_angle` (deg); `npm run replay` reads them. Condition numbers count from 1 in the order of conditions.csv.", ""]

@@ -1,5 +1,6 @@
-/** The CSV a researcher downloads after making links in bulk (RFC 4180 quoting; codes and links need none). */
+import { csvLine } from "../csv/csvField";
+
+/** The CSV a researcher downloads after making links in bulk (RFC 4180 quoting, formula triggers neutralised: lib/csv). */
 export function invitationsCsv(rows: { code: string; link: string; completionCode: string }[]): string {
-  const quote = (s: string) => (/[",\r\n]/.test(s) ? `"${s.replaceAll('"', '""')}"` : s);
-  return ["participant,link,completion_code", ...rows.map((r) => [r.code, r.link, r.completionCode].map(quote).join(","))].join("\r\n") + "\r\n";
+  return [csvLine(["participant", "link", "completion_code"]), ...rows.map((r) => csvLine([r.code, r.link, r.completionCode]))].join("\r\n") + "\r\n";
 }

@@ -1,9 +1,6 @@
+import { csvField as quote } from "../csv/csvField";
 import { TRIAL_COLUMNS, FACTOR_PREFIX, FLAG_COLUMNS } from "./columns";
 import type { TrialRow } from "./trialRow";
-
-function quote(text: string): string {
-  return /[",\r\n]/.test(text) || text !== text.trim() ? `"${text.replace(/"/g, '""')}"` : text;
-}
 
 /**
  * The header line of a trial table with the given factor names (f_NAME columns, in that order);
@@ -18,7 +15,8 @@ const flagCell = (v: boolean | undefined): string => (v ? "1" : "0");
 /**
  * Formats one movement as a trial-table CSV line (no line break), columns in TRIAL_COLUMNS order,
  * with `flags` the movement flags (a row without them writes 0), then f_NAME for each factor name
- * given. Numbers use JavaScript's shortest round-trip form.
+ * given. Numbers use JavaScript's shortest round-trip form; text through csvField (a cell that
+ * begins with = + - @, tab or CR is neutralised with a leading single quote, OWASP CSV Injection).
  *
  * Cost: O(columns).
  * @throws Error when the row lacks a level for one of the factor names.

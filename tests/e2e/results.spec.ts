@@ -63,7 +63,7 @@ test("the consent register: owner and reviewers get the CSV; the editor does not
   const studies = (await (await owner.get("/api/studies")).json()) as { studies: { id: number; title: string }[] };
   const id = studies.studies.find((s) => s.title === FINISHED_STUDY.title)!.id;
   const csv = await (await owner.get(`/api/studies/${id}/consent-register`)).text();
-  expect(csv.split("\n")[0]).toBe("participant_code,status,consent_version,version_hash,document_sha256,signed_at,withdrawn_at,typed_name,agreed");
+  expect(csv.split("\n")[0]).toBe("participant_code,status,consent_version,version_hash,document_sha256,signed_at,withdrawn_at,typed_name,agreed,erased_at");
   expect(csv.trim().split("\n")).toHaveLength(13);
   const priya = DEMO_PEOPLE.find((p) => p.email.startsWith("priya@"))!;
   const editor = await apiAs(priya.email, priya.password);

@@ -93,7 +93,7 @@ describe("eraseParticipant", () => {
     expect(report.supersededExports).toEqual([jobId]);
     expect(Object.values(await rowsOf(pid)).reduce((a, b) => a + b, 0) - ((await rowsOf(pid)).consent_records ?? 0)).toBe(0);
     const consent = await db("consent_records").where({ participant_id: pid }).first();
-    expect(consent.typed_name).toBeNull();
+    expect(consent.typed_name_encrypted).toBeNull();
     expect(consent.device_summary).toBeNull();
     expect(consent.erased_at).not.toBeNull();
     expect((consent.signed_at as Date).toISOString()).toMatch(/T00:00:00\.000Z$/);
@@ -118,7 +118,7 @@ describe("eraseParticipant", () => {
     expect(await withdrawParticipant(db, ctx, REASON)).toEqual({ erased: true });
     const left = await rowsOf(ctx.participant.id);
     expect({ ...left, consent_records: 0 }).toEqual(Object.fromEntries(PARTICIPANT_TABLES.map((t) => [t.table, 0])));
-    expect((await db("consent_records").where({ participant_id: ctx.participant.id }).first()).typed_name).toBeNull();
+    expect((await db("consent_records").where({ participant_id: ctx.participant.id }).first()).typed_name_encrypted).toBeNull();
     expect(await auditText(fx.studyId)).not.toContain("Pekka");
     expect(JSON.stringify(await db("participants").where({ id: ctx.participant.id }).first())).not.toContain("Pekka");
   });

@@ -15,6 +15,7 @@ import { startExportProcess } from "@/lib/data/exportProcess";
 import { fetchResultsParticipants, fetchStudyDesign, fetchStudyTrialRecords } from "@/lib/data/results";
 import { randomPseudonyms, stablePseudonym, validateDataPackage, valueMatchesFieldType, writeArchive, type ExportOptions } from "@/lib/export";
 import { buildResultsView } from "@/lib/results";
+import { sealWithDataKey } from "@/lib/recruitment/dataKey";
 import { readZip } from "../fixtures/readZip";
 
 const dir = mkdtempSync(join(tmpdir(), "yawpoint-export-it-"));
@@ -48,7 +49,7 @@ beforeAll(async () => {
     device: JSON.stringify({ inputs: ["gyroscope"], ip: LEAKY.ip, userAgent: LEAKY.userAgent }),
   });
   await db("participant_contacts").insert({ participant_id: p.id, email_encrypted: `plain-for-test:${LEAKY.email}` }).onConflict("participant_id").merge();
-  await db("consent_records").where({ participant_id: p.id }).update({ typed_name: LEAKY.typedName, device_summary: JSON.stringify({ ip: LEAKY.ip, userAgent: LEAKY.userAgent }) });
+  await db("consent_records").where({ participant_id: p.id }).update({ typed_name_encrypted: sealWithDataKey(LEAKY.typedName), device_summary: JSON.stringify({ ip: LEAKY.ip, userAgent: LEAKY.userAgent }) });
   await db("questionnaire_answers").where({ participant_id: p.id, item_id: "comments" }).delete();
   await db("questionnaire_answers").insert({ participant_id: p.id, condition: "", item_id: "comments", value_text: `write to ${LEAKY.email}, ${LEAKY.typedName}` });
   const codes = (await db("participants").where({ study_id: studyId }).select("code", "token_hash", "completion_code")) as { code: string; token_hash: string; completion_code: string | null }[];

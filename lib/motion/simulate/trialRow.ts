@@ -1,3 +1,4 @@
+import { csvField } from "../../csv/csvField";
 import type { MovementColumns } from "../../trials/movementColumns";
 
 /** One movement, with the columns of the trial table (interfaces.md "Trial table"). */
@@ -17,7 +18,6 @@ export const trialColumns = [
   "from_x", "from_y", "to_x", "to_y", "start_x", "start_y", "end_x", "end_y", "time_ms", "hit",
 ] as const satisfies readonly (keyof TrialRow)[];
 
-const quote = (s: string): string => (/[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s);
 
 /**
  * Trial rows as a trial-table CSV (formatTrialCsv).
@@ -29,6 +29,6 @@ const quote = (s: string): string => (/[",\n\r]/.test(s) ? `"${s.replace(/"/g, '
  */
 export function formatTrialCsv(rows: readonly TrialRow[]): string {
   const lines = [trialColumns.join(",")];
-  for (const r of rows) lines.push(trialColumns.map((c) => (typeof r[c] === "string" ? quote(r[c] as string) : String(r[c]))).join(","));
+  for (const r of rows) lines.push(trialColumns.map((c) => csvField(r[c])).join(","));
   return lines.join("\n") + "\n";
 }

@@ -7,13 +7,11 @@ import { appendAudit } from "@/lib/data/audit";
 import { fetchConsentRegister } from "@/lib/data/exports";
 import { fetchStudy } from "@/lib/data/studies";
 import { forbidden, notFound } from "@/lib/errors";
-import { csvLine } from "@/lib/export";
+import { consentRegisterCsv } from "@/lib/consent/consentRegisterCsv";
 import { getCurrentUser } from "@/lib/session";
 
 type Ctx = { params: Promise<{ id: string }> };
 const paramsSchema = z.object({ id: z.coerce.number().int().positive() });
-
-const HEADER = ["participant_code", "status", "consent_version", "version_hash", "document_sha256", "signed_at", "withdrawn_at", "typed_name", "agreed"];
 
 /**
  * GET: the identified consent register (CSV): one row per consent record. Ethics reviewers and
@@ -30,8 +28,7 @@ export const GET = route(async (_request: Request, context: Ctx) => {
   } else throw forbidden("Only ethics reviewers and the study's owner may read the consent register.");
   const records = await fetchConsentRegister(db, id);
   await appendAudit(db, { actorUserId: user.id, actorLabel: user.email, action: "consent_register.download", studyId: id, details: { records: records.length } });
-  const lines = [csvLine(HEADER), ...records.map((r) => csvLine([r.participantCode, r.status, r.version, r.versionHash, r.documentHash, r.signedAt.toISOString(), r.withdrawnAt ? r.withdrawnAt.toISOString() : null, r.typedName, r.agreed.join(" ")]))];
-  return new Response(lines.join("\n") + "\n", {
+  return new Response(consentRegisterCsv(records), {
     headers: { "content-type": "text/csv; charset=utf-8", "content-disposition": `attachment; filename="study-${id}-consent-register.csv"`, "cache-control": "no-store" },
   });
 });
