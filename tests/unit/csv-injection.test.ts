@@ -42,8 +42,8 @@ describe("every CSV writer of the product neutralises a formula", () => {
   const evil = PAYLOADS[0]!;
   const row: TrialRow = {
     participant: evil, condition: evil, block: 1, sequence: 1, trial: 1, amplitude: 100, width: 10,
-    fromX: 0, fromY: 0, toX: 100, toY: 0, startX: 0, startY: 0, endX: -99, endY: 1, timeMs: 700, hit: 1, factors: { technique: evil },
-  } as TrialRow;
+    fromX: 0, fromY: 0, toX: 100, toY: 0, startX: 0, startY: 0, endX: -99, endY: 1, timeMs: 700, hit: true, factors: { technique: evil },
+  };
   const cellsOf = (csv: string): string[] => (parse(csv, { from_line: 2 }) as string[][]).flat();
 
   it("the trial table (archive trials.csv, analysis imports)", () => {
