@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { transferConfigSchema, type TransferConfig } from "@/lib/motion/config";
+import { configFieldIssues, levelFieldIssues } from "./editor/configIssues";
 
 /**
  * The study design as the designer stores it (studies.design) and as the participant runner and
@@ -89,7 +90,20 @@ export const studyDesignSchema = z
       if (d.conditionSubset.length === 0) ctx.addIssue({ code: "custom", path: ["conditionSubset"], message: "choose at least one condition" });
       for (const c of d.conditionSubset) if (!all.some((x) => x.label === c)) ctx.addIssue({ code: "custom", path: ["conditionSubset"], message: `unknown condition "${c}"` });
     }
-    // Every condition's merged configuration must be a valid transfer configuration.
+    // The base settings, and each level over the base, must be valid: the problem is reported at
+    // the field (baseConfig.gain, factors.1.levels.0.config.gain) so the form shows it there.
+    const baseIssues = configFieldIssues(d.baseConfig);
+    for (const i of baseIssues) ctx.addIssue({ code: "custom", path: i.field ? ["baseConfig", i.field] : ["baseConfig"], message: i.message });
+    let levelProblems = baseIssues.length > 0;
+    d.factors.forEach((f, fi) => f.levels.forEach((l, li) => {
+      for (const i of levelFieldIssues(d.baseConfig, l.config)) {
+        levelProblems = true;
+        ctx.addIssue({ code: "custom", path: i.field ? ["factors", fi, "levels", li, "config", i.field] : ["factors", fi, "levels", li, "config"], message: i.message });
+      }
+    }));
+    if (levelProblems) return;
+    // Every condition's merged configuration must be a valid transfer configuration (levels of
+    // different factors can conflict, e.g. a slow speed in one and a fast speed in another).
     for (const c of all) {
       const r = transferConfigSchema.safeParse(mergeConfig(d.baseConfig, c.levels.map((l) => l.config)));
       if (!r.success) {

@@ -25,14 +25,14 @@ test("a 2 × 2 study from design to invitations, with review and a verified audi
   // Design: technique (motion, stick) × gain (3, 6).
   await researcher.getByRole("button", { name: "Add level to factor 1" }).click();
   await researcher.getByLabel("Factor 1 level 2 label").fill("stick");
-  await researcher.getByLabel("Factor 1 level 2 settings").fill("technique=stick");
+  await researcher.getByLabel("Factor 1 level 2 Input technique", { exact: true }).selectOption("stick");
   await researcher.getByRole("button", { name: "Add factor" }).click();
   await researcher.getByLabel("Factor 2 name").fill("gain");
   await researcher.getByLabel("Factor 2 level 1 label").fill("gain 3");
-  await researcher.getByLabel("Factor 2 level 1 settings").fill("gain=3");
+  await researcher.getByLabel("Factor 2 level 1 CD gain", { exact: true }).fill("3");
   await researcher.getByRole("button", { name: "Add level to factor 2" }).click();
   await researcher.getByLabel("Factor 2 level 2 label").fill("gain 6");
-  await researcher.getByLabel("Factor 2 level 2 settings").fill("gain=6");
+  await researcher.getByLabel("Factor 2 level 2 CD gain", { exact: true }).fill("6");
   await researcher.getByLabel("Planned participants (N)").fill("10");
 
   // Bad input is refused at the field: an even ring and W ≥ A.
