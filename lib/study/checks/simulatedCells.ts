@@ -40,7 +40,7 @@ export function simulatedSequenceRows(task: TaskLike, amplitude: number, width: 
   } catch {
     return null;
   }
-  return sim.trials.map((t) => trialRowFromRecord({ ...t, participant_id: 0 } as TrialRecord, labels.participant, {}));
+  return sim.trials.map((t) => trialRowFromRecord({ ...t, participant_id: 0, timed_out: 0, recentered: 0, clutched: 0 } satisfies TrialRecord, labels.participant, {}));
 }
 
 /**
