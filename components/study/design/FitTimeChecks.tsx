@@ -27,7 +27,7 @@ export function FitTimeChecks({ design }: { design: StudyDesign }) {
           <p><strong>Some targets do not fit.</strong> Make A or W smaller, use mm or visual degrees so sizes follow the screen, or tell participants which devices to use.</p>
           <ul className="list-disc pl-5">{fit.warnings.map((w) => <li key={w}>{w}</li>)}</ul>
         </div>
-      ) : <p role="status" aria-label="Fit result">Every A×W fits every device class this study&apos;s techniques allow.</p>}
+      ) : <p aria-label="Fit result">Every A×W fits every device class this study&apos;s techniques allow.</p>}
       <table aria-label="Fit per device">
         <thead><tr><th>A × W ({design.task.unit})</th>{fit.devices.map((d) => <th key={d.id}>{d.label}</th>)}</tr></thead>
         <tbody>
@@ -49,7 +49,7 @@ export function FitTimeChecks({ design }: { design: StudyDesign }) {
         {t && (
           <p className="text-xs text-slate-600">Mean movement time: {t.conditions.map((c) => `${c.label} ${Math.round(c.meanMovementMs)} ms${c.method === "simulated" ? "" : " (timing model only: no sensor stream for this technique yet)"}`).join("; ")}.</p>
         )}
-        {time.progress && <p className="text-xs" role="status">Estimating the time… <progress max={time.progress.total} value={time.progress.done} aria-label={progressText(time.progress)} /></p>}
+        {time.progress && <p className="text-xs">Estimating the time… <progress max={time.progress.total} value={time.progress.done} aria-label={progressText(time.progress)} /></p>}
         {time.answer?.kind === "error" && <p className="field-error">{time.answer.message}</p>}
       </div>
       <p className="text-xs text-slate-600">Cautions: repeated wrist rotation can strain and view rotation can cause motion sickness; long sessions need breaks. Keep sessions short and follow your ethics board.</p>
