@@ -83,3 +83,84 @@ test("a 2 (technique) × 3 (gain) study built only with the settings editor and 
   await page.reload();
   await expect(page.getByLabel("Factor 2 level 3 changes from the base")).toContainText("CD gain 2.5 → 7");
 });
+
+test("try this level: the real task with a mouse on this computer, and on a phone-sized context through the short link with Chromium's sensor emulation", async ({ page, browser }) => {
+  const { apiAsRole } = await import("./helpers");
+  const { ringTargets, ringVisitingOrder } = await import("../../lib/task");
+  const api = await apiAsRole("researcher");
+  const { study } = (await (await api.post("/api/studies", { data: { title: `Try a level ${Date.now()}` } })).json()) as { study: { id: number } };
+  const design = {
+    factors: [{ name: "technique", levels: [{ label: "mouse", config: { technique: "mouse", pointerCursorGain: 1 } }, { label: "motion gain 2", config: { technique: "motion", gain: 2 } }] }],
+    task: { type: "ring", displayMode: "cursor", unit: "px", amplitudes: [200], widths: [40], targetsPerRing: 9, selection: "click" },
+    counterbalancing: { method: "williams", seed: 1 },
+  };
+  expect((await api.put(`/api/studies/${study.id}/design`, { data: design })).status()).toBe(200);
+  await api.dispose();
+
+  await signInWithForm(page, demo("researcher").email, demo("researcher").password);
+  await expect(page).toHaveURL(/\/studies/);
+  await page.goto(`/studies/${study.id}/design`);
+
+  // With a mouse: the mouse level's ring, each target clicked in the ISO visiting order with real mouse events.
+  await page.getByLabel("Condition to try").selectOption({ label: "mouse" });
+  await page.getByRole("button", { name: "Try this level" }).click();
+  const here = await page.getByRole("link", { name: "Open it on this computer" }).getAttribute("href");
+  const tryPage = await page.context().newPage();
+  await tryPage.goto(here!);
+  await expect(tryPage.getByText("Nothing is recorded")).toBeVisible();
+  await tryPage.getByRole("button", { name: "Start" }).click();
+  const canvas = tryPage.locator("canvas");
+  await expect(canvas).toBeVisible();
+  const box = (await canvas.boundingBox())!;
+  const ring = ringTargets(9, 200 / Math.cos(Math.PI / 18)); // ISO 9241-411: nominal A is the chord, D = A / cos(π/2n)
+  for (const k of ringVisitingOrder(9)) {
+    await tryPage.mouse.move(box.x + box.width / 2 + ring[k]!.x, box.y + box.height / 2 + ring[k]!.y, { steps: 4 });
+    await tryPage.mouse.down();
+    await tryPage.mouse.up();
+  }
+  await expect(tryPage.getByTestId("try-movements")).toHaveText("9 movements, 9 hits");
+
+  // On a phone: the short link (as its QR code says), opened without an account; 30° of emulated rotation at gain 2.
+  await page.getByLabel("Condition to try").selectOption({ label: "motion gain 2" });
+  await page.getByRole("button", { name: "Try this level" }).click();
+  const shortUrl = await page.getByTestId("short-link-url").textContent();
+  expect(shortUrl).toMatch(/\/go\/[A-Za-z0-9]{8}$/);
+  const phone = await browser.newContext({ viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true });
+  const p = await phone.newPage();
+  const cdp = await phone.newCDPSession(p);
+  // W3C Generic Sensor / Device Orientation and Motion: readings in rad/s and m/s²; devicemotion needs all three of
+  // gyroscope, accelerometer and linear-acceleration (Chromium's emulation, CDP Emulation.setSensorOverride*).
+  for (const type of ["gyroscope", "accelerometer", "linear-acceleration", "gravity"]) {
+    await cdp.send("Emulation.setSensorOverrideEnabled", { enabled: true, type, metadata: { available: true, minimumFrequency: 1, maximumFrequency: 60 } } as never);
+  }
+  const set = (type: string, x: number, y: number, z: number) => cdp.send("Emulation.setSensorOverrideReadings", { type, reading: { xyz: { x, y, z } } } as never);
+  await set("gyroscope", 0, 0, 0);
+  await set("accelerometer", 0, 9.80665, 0); // held upright: gravity along the screen's y axis
+  await set("linear-acceleration", 0, 0, 0);
+  await set("gravity", 0, 9.80665, 0);
+  await p.goto(shortUrl!.replace(/^https?:\/\/[^/]+/, ""));
+  await expect(p).toHaveURL(/\/try\//);
+  await p.getByRole("button", { name: "Start" }).tap();
+  await expect(p.locator("canvas")).toBeVisible();
+  await p.getByRole("button", { name: "Reset the reading" }).tap();
+  await p.waitForTimeout(300);
+  // 30°/s about the screen-up axis for one second: a 30° turn
+  const rate = (30 * Math.PI) / 180;
+  const t0 = Date.now();
+  await set("gyroscope", 0, rate, 0);
+  await p.waitForTimeout(1000);
+  await set("gyroscope", 0, 0, 0);
+  const heldMs = Date.now() - t0;
+  await p.waitForTimeout(500);
+  const device = Number(await p.getByTestId("try-device-deg").textContent());
+  const moved = Number(await p.getByTestId("try-output").textContent());
+  // The device turned about 30° (the emulation's own timing within a few frames) …
+  expect(device).toBeGreaterThan(30 * (heldMs / 1000) * 0.85);
+  expect(device).toBeLessThan(30 * (heldMs / 1000) * 1.15 + 1);
+  // … and the cursor moved gain × device degrees × pixels per degree: 2 × 30° × 10 px/° = 600 px for a 30° turn (CD gain, common practice).
+  expect(moved).toBeGreaterThan(2 * device * 10 * 0.97);
+  expect(moved).toBeLessThan(2 * device * 10 * 1.03 + 1);
+  expect(moved).toBeGreaterThan(600 * 0.8);
+  expect(moved).toBeLessThan(600 * 1.25 * (heldMs / 1000));
+  await phone.close();
+});

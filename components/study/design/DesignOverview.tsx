@@ -7,6 +7,7 @@ import { RateResponseChart } from "../charts/RateResponseChart";
 import { TurnChart } from "../charts/TurnChart";
 import { FitTimeChecks } from "./FitTimeChecks";
 import { PowerPanel } from "./PowerPanel";
+import { TryPanel } from "./TryPanel";
 import { designSummary, orderPreview } from "@/lib/study/summary";
 
 /**
@@ -49,6 +50,7 @@ export const DesignOverview = memo(function DesignOverview({ values, studyId }: 
             <TurnChart conditions={configs} />
             <RateResponseChart conditions={configs} />
           </div>
+          <TryPanel studyId={studyId} design={parsed.data} conditions={configs} />
           <FitTimeChecks design={parsed.data} />
           <PowerPanel design={parsed.data} studyId={studyId} />
         </>

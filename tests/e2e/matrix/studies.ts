@@ -58,6 +58,13 @@ export async function setup(clients: Clients): Promise<void> {
   ids.document = up.document.id;
 }
 
+/** A level to try: a motion condition at gain 3 on a cursor ring (our own values). */
+const TRY_BODY = {
+  label: "motion / gain 3",
+  config: { technique: "motion", gain: 3 },
+  task: { type: "ring", displayMode: "cursor", unit: "px", amplitudes: [300], widths: [40], targetsPerRing: 9, selection: "tap", dwellMs: 600, trialTimeLimitMs: 10000 },
+};
+
 export const ENTRIES: Record<string, Entry> = {
   "app/api/studies/[id]/route.ts": {
     calls: [
@@ -66,6 +73,7 @@ export const ENTRIES: Record<string, Entry> = {
     ],
   },
   "app/api/studies/[id]/design/route.ts": { calls: [{ method: "PUT", path: () => `/api/studies/${ids.draft}/design`, body: () => MATRIX_DESIGN, allowed: ["researcher"] }] },
+  "app/api/studies/[id]/try/route.ts": { calls: [{ method: "POST", path: () => `/api/studies/${ids.draft}/try`, body: () => TRY_BODY, allowed: ["researcher"] }] },
   "app/api/studies/[id]/team/route.ts": {
     calls: [
       { method: "GET", path: () => `/api/studies/${ids.draft}/team`, allowed: ["researcher"] },
