@@ -111,10 +111,10 @@ test("try this level: the real task with a mouse on this computer, and on a phon
   await tryPage.getByRole("button", { name: "Start" }).click();
   const canvas = tryPage.locator("canvas");
   await expect(canvas).toBeVisible();
-  const box = (await canvas.boundingBox())!;
+  const area = (await canvas.boundingBox())!;
   const ring = ringTargets(9, 200 / Math.cos(Math.PI / 18)); // ISO 9241-411: nominal A is the chord, D = A / cos(π/2n)
   for (const k of ringVisitingOrder(9)) {
-    await tryPage.mouse.move(box.x + box.width / 2 + ring[k]!.x, box.y + box.height / 2 + ring[k]!.y, { steps: 4 });
+    await tryPage.mouse.move(area.x + area.width / 2 + ring[k]!.x, area.y + area.height / 2 + ring[k]!.y, { steps: 4 });
     await tryPage.mouse.down();
     await tryPage.mouse.up();
   }
