@@ -3,15 +3,22 @@ import { parseEnv } from "./lib/env";
 
 const env = parseEnv(process.env);
 
-/** Knex configuration; the CLI (migrations) and lib/db.ts both use it. */
-export function knexConfig(database: string = env.DB_NAME): Knex.Config {
+/**
+ * Who connects: the application (DB_USER: reads and writes rows, may only read and append to the
+ * audit log, no schema changes) or the database's owner (DB_OWNER_USER: runs the migrations).
+ * scripts/db.ts creates both and grants each its rights.
+ */
+export type DbRole = "app" | "owner";
+
+/** Knex configuration; lib/db.ts uses the application's, the knex CLI (migrations) the owner's. */
+export function knexConfig(database: string = env.DB_NAME, as: DbRole = "app"): Knex.Config {
   return {
     client: "mysql2",
     connection: {
       host: env.DB_HOST,
       port: env.DB_PORT,
-      user: env.DB_USER,
-      password: env.DB_PASSWORD,
+      user: as === "owner" ? env.DB_OWNER_USER : env.DB_USER,
+      password: as === "owner" ? env.DB_OWNER_PASSWORD : env.DB_PASSWORD,
       database,
       charset: "utf8mb4",
       timezone: "Z",
@@ -27,4 +34,5 @@ export function knexConfig(database: string = env.DB_NAME): Knex.Config {
   };
 }
 
-export default knexConfig();
+/** The knex CLI's configuration (npm run db:migrate / db:rollback): the owner runs migrations. */
+export default knexConfig(env.DB_NAME, "owner");

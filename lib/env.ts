@@ -19,6 +19,9 @@ const schemaFor = (isDev: boolean) => z.object({
   DB_NAME: z.string().regex(/^[A-Za-z0-9_]+$/).default("yawpoint"),
   DB_USER: z.string().default("yawpoint"),
   DB_PASSWORD: z.string().default("yawpoint-local"),
+  /** The database's owner, who runs the migrations; the application (DB_USER) cannot change the schema or the audit log. */
+  DB_OWNER_USER: z.string().default("yawpoint_owner"),
+  DB_OWNER_PASSWORD: z.string().default("yawpoint-owner-local"),
   /** Largest number of database connections the server's pool opens. */
   DB_POOL_MAX: z.coerce.number().int().min(1).max(200).default(10),
   SMTP_HOST: z.string().default("127.0.0.1"),

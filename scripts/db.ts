@@ -77,6 +77,36 @@ function sql(statements: string): void {
   run(which("mariadb") ?? "mariadb", ["--socket", socket, "-uroot"], statements);
 }
 
+/** Rows of a query as root (tab-separated, no header). */
+function rows(query: string): string[][] {
+  return run(which("mariadb") ?? "mariadb", ["--socket", socket, "-uroot", "-N", "-B", "-e", query]).split("\n").filter(Boolean).map((l) => l.split("\t"));
+}
+
+const quoted = (s: string): string => s.replace(/['`\\]/g, "");
+const HOSTS = ["127.0.0.1", "localhost"];
+
+/**
+ * The two database users: the owner (DB_OWNER_USER) holds every right on DB_NAME and runs the
+ * migrations; the application (DB_USER) gets, table by table, only what it needs — rows to read
+ * and write, the audit log to read and append to (no UPDATE, no DELETE), the migrations' tables to
+ * read — and EXECUTE for the stored procedures; no schema changes. Grants are set after every
+ * migration run, so a new table gets them; rights on whole databases the application held before
+ * (every right, in earlier versions) are taken back, except EXECUTE.
+ */
+function grantRights(tables: readonly string[]): void {
+  const app = quoted(env.DB_USER), db = quoted(env.DB_NAME);
+  const held = rows(`SELECT Db, Host FROM mysql.db WHERE User = '${app}'`);
+  const statements = held.map(([d, h]) => `REVOKE ALL PRIVILEGES ON \`${d}\`.* FROM '${app}'@'${h}'; GRANT EXECUTE ON \`${d}\`.* TO '${app}'@'${h}';`);
+  for (const h of HOSTS) {
+    statements.push(`GRANT EXECUTE ON \`${db}\`.* TO '${app}'@'${h}';`);
+    for (const t of tables) {
+      const rights = t === "audit_log" ? "SELECT, INSERT" : t.startsWith("knex_") ? "SELECT" : "SELECT, INSERT, UPDATE, DELETE";
+      statements.push(`GRANT ${rights} ON \`${db}\`.\`${t}\` TO '${app}'@'${h}';`);
+    }
+  }
+  sql(statements.join("\n") + "\nFLUSH PRIVILEGES;");
+}
+
 async function start(): Promise<void> {
   ensureInstalled();
   mkdirSync(dataDir, { recursive: true });
@@ -105,20 +135,21 @@ async function start(): Promise<void> {
     await waitFor(() => ping(), "MariaDB start");
     console.log(`db: MariaDB started on 127.0.0.1:${env.DB_PORT} (pid ${pidAlive()})`);
   }
-  const user = env.DB_USER.replace(/'/g, "");
-  const password = env.DB_PASSWORD.replace(/'/g, "");
+  const user = quoted(env.DB_USER), password = quoted(env.DB_PASSWORD);
+  const owner = quoted(env.DB_OWNER_USER), ownerPassword = quoted(env.DB_OWNER_PASSWORD);
   const fresh = process.argv.includes("--fresh");
   sql(`${fresh ? `DROP DATABASE IF EXISTS \`${env.DB_NAME}\`;` : ""}
 CREATE DATABASE IF NOT EXISTS \`${env.DB_NAME}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;
-CREATE USER IF NOT EXISTS '${user}'@'127.0.0.1' IDENTIFIED BY '${password}';
-CREATE USER IF NOT EXISTS '${user}'@'localhost' IDENTIFIED BY '${password}';
-GRANT ALL PRIVILEGES ON \`${env.DB_NAME}%\`.* TO '${user}'@'127.0.0.1';
-GRANT ALL PRIVILEGES ON \`${env.DB_NAME}%\`.* TO '${user}'@'localhost';
+${HOSTS.map((h) => `CREATE USER IF NOT EXISTS '${user}'@'${h}' IDENTIFIED BY '${password}';
+CREATE USER IF NOT EXISTS '${owner}'@'${h}' IDENTIFIED BY '${ownerPassword}';
+GRANT ALL PRIVILEGES ON \`${env.DB_NAME}%\`.* TO '${owner}'@'${h}';`).join("\n")}
 FLUSH PRIVILEGES;`);
-  const conn = knex(knexConfig(env.DB_NAME));
+  const conn = knex(knexConfig(env.DB_NAME, "owner"));
   try {
     const [, applied] = (await conn.migrate.latest()) as [number, string[]];
-    console.log(`db: database ${env.DB_NAME} ready${fresh ? " (recreated)" : ""}; ${applied.length} migration(s) applied`);
+    const [tables] = (await conn.raw("SELECT table_name AS t FROM information_schema.tables WHERE table_schema = ?", [env.DB_NAME])) as [{ t: string }[]];
+    grantRights(tables.map((r) => r.t));
+    console.log(`db: database ${env.DB_NAME} ready${fresh ? " (recreated)" : ""}; ${applied.length} migration(s) applied; ${env.DB_USER} may not change the schema or the audit log`);
   } finally {
     await conn.destroy();
   }

@@ -27,3 +27,19 @@ ${p.link}
 `,
   };
 }
+
+export function auditHeadMail(p: { name: string; day: string; at: Date; head: { lastId: number; hash: string; entries: number }; line: string }): { subject: string; text: string } {
+  return {
+    subject: `Yawpoint audit trail: the head of ${p.day}`,
+    text: `Hello ${p.name},
+
+on ${p.day} at ${p.at.toISOString().slice(11, 16)} UTC the audit trail held ${p.head.entries} entries; the newest was number ${p.head.lastId}.
+Keep this message outside Yawpoint. To check later that no entry up to that one was changed or removed,
+paste this line into "Heads you kept" on the audit page and verify the chain:
+
+${p.line}
+
+Nobody at the lab can change this message once you have it, which is what makes it a check.
+`,
+  };
+}

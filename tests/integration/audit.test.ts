@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { seedDemo } from "@/db/seeds/demo";
 import { db } from "@/lib/db";
 import { appendAudit, auditCanonical, auditHash, fetchAuditHead, GENESIS_HASH, verifyAuditChain } from "@/lib/data/audit";
+import { keptHeadLine, listPublishedHeads, parseKeptHeads, publishAuditHead } from "@/lib/data/auditHeads";
 import { env } from "@/lib/env";
 import { ownerDb } from "./ownerDb";
 
@@ -52,6 +53,17 @@ describe("audit chain", () => {
     expect(await verifyAuditChain(db)).toMatchObject({ intact: true, entries: 40 });
     await owner("audit_log").where({ id: rows[28]!.id }).delete();
     expect(await verifyAuditChain(db)).toMatchObject({ intact: false, firstBrokenId: rows[29]!.id });
+  });
+
+  it("the application's database user cannot change or remove an entry, or the log itself (only the owner, who runs migrations, can)", async () => {
+    await appendAudit(db, { actorUserId: null, actorLabel: "system", action: "test.append", details: {} });
+    const denied = { code: expect.stringMatching(/ER_TABLEACCESS_DENIED_ERROR|ER_DBACCESS_DENIED_ERROR/) };
+    await expect(db("audit_log").update({ actor_label: "someone else" })).rejects.toMatchObject(denied);
+    await expect(db("audit_log").delete()).rejects.toMatchObject(denied);
+    await expect(db.raw("TRUNCATE TABLE audit_log")).rejects.toMatchObject({ code: expect.stringMatching(/DENIED/) });
+    await expect(db.raw("CREATE TRIGGER audit_unlock BEFORE UPDATE ON audit_log FOR EACH ROW SET @x = 1")).rejects.toMatchObject({ code: expect.stringMatching(/DENIED/) });
+    await expect(db.raw("ALTER TABLE audit_log ADD COLUMN x INT")).rejects.toMatchObject({ code: expect.stringMatching(/DENIED/) });
+    expect(await owner("audit_log").update({ actor_label: "system" })).toBeGreaterThan(0); // the owner can, which verification shows (below)
   });
 
   it("refuses a history rewritten by someone with database access but without the key (edited, then re-chained with SHA-256 as before)", async () => {
@@ -105,5 +117,19 @@ describe("audit chain", () => {
     })).rejects.toThrow(/audit head/);
     expect(await db("studies").where({ title }).first()).toBeUndefined();
     await owner("audit_head").insert({ id: 1, last_id: 0, hash: GENESIS_HASH, entries: 0 });
+  });
+
+  it("publishes the head once a day, mailed to every active reviewer, in the form verification takes back", async () => {
+    await appendAudit(db, { actorUserId: null, actorLabel: "system", action: "test.append", details: {} });
+    const day = new Date(Date.UTC(2031, 4, 6, 12));
+    expect(await publishAuditHead(db, day)).toBe(true);
+    expect(await publishAuditHead(db, new Date(day.getTime() + 3_600_000))).toBe(false); // the same day: once
+    const head = await fetchAuditHead(db);
+    expect((await listPublishedHeads(db)).find((p) => p.day === "2031-05-06")).toMatchObject({ lastId: head.lastId, hash: head.hash });
+    const reviewers = await db("users").where({ role: "reviewer", active: true }).pluck("email");
+    const mails = await db("outgoing_mail").where({ template: "audit-head" }).andWhere("created_at", ">=", new Date(Date.now() - 60_000)).pluck("to_address");
+    for (const r of reviewers) expect(mails).toContain(r);
+    expect(parseKeptHeads(`${keptHeadLine(head)}\n\n`)).toEqual([{ lastId: head.lastId, hash: head.hash }]);
+    expect(() => parseKeptHeads("12:not-a-hash")).toThrow(/entry:hash/);
   });
 });

@@ -14,10 +14,10 @@ async function tables(): Promise<string[]> {
 }
 
 beforeAll(async () => {
-  admin = knex({ ...knexConfig(), connection: { ...(knexConfig().connection as object), database: undefined } });
+  admin = knex({ ...knexConfig(undefined, "owner"), connection: { ...(knexConfig(undefined, "owner").connection as object), database: undefined } });
   await admin.raw(`DROP DATABASE IF EXISTS \`${name}\``);
   await admin.raw(`CREATE DATABASE \`${name}\``);
-  db = knex(knexConfig(name));
+  db = knex(knexConfig(name, "owner"));
 });
 
 /** Runs the knex CLI as a developer would (tsx loads the TypeScript migrations). */

@@ -7,5 +7,5 @@ import { knexConfig } from "@/knexfile";
  * itself (lib/db.ts) connects as a user that may not.
  */
 export function ownerDb(database?: string): Knex {
-  return knex({ ...knexConfig(database), pool: { min: 0, max: 2 } });
+  return knex({ ...knexConfig(database, "owner"), pool: { min: 0, max: 2 } });
 }

@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { db } from "@/lib/db";
 import { seedDemo } from "@/db/seeds/demo";
 import { verifyAuditChain } from "@/lib/data/audit";
+import { ownerDb } from "./ownerDb";
 import { hashToken } from "@/lib/auth/tokens";
 import type { SessionUser } from "@/lib/auth/guards";
 import { sha256Text } from "@/lib/consent/sha256Text";
@@ -184,9 +185,11 @@ describe("audit trail of the study designer", () => {
     expect(actions).toEqual(["team.set", "team.set", "study.design"]);
     expect((await verifyAuditChain(db)).intact).toBe(true);
     const row = await db("audit_log").where({ study_id: id, action: "study.design" }).first();
-    await db("audit_log").where({ id: row.id }).update({ actor_label: "someone.else@harbourview-lab.example" });
+    const dbOwner = ownerDb(); // the application's own user may not change the log (tests/integration/audit.test.ts)
+    await dbOwner("audit_log").where({ id: row.id }).update({ actor_label: "someone.else@harbourview-lab.example" });
     expect(await verifyAuditChain(db)).toMatchObject({ intact: false, firstBrokenId: row.id, reason: "its content does not match its hash" });
-    await db("audit_log").where({ id: row.id }).update({ actor_label: row.actor_label });
+    await dbOwner("audit_log").where({ id: row.id }).update({ actor_label: row.actor_label });
+    await dbOwner.destroy();
     expect((await verifyAuditChain(db)).intact).toBe(true);
   });
 });

@@ -47,4 +47,5 @@ export const ENTRIES: Record<string, Entry> = {
   },
   "app/api/analyses/[id]/route.ts": { calls: [{ method: "GET", path: () => `/api/analyses/${importId}`, allowed: ["researcher"] }] },
   "app/api/audit/verify/route.ts": { calls: [{ method: "GET", path: "/api/audit/verify", allowed: ["reviewer"] }] },
+  "app/api/audit/head/route.ts": { calls: [{ method: "GET", path: "/api/audit/head", allowed: ["reviewer"] }] },
 };

@@ -1,6 +1,7 @@
 import { requireRole } from "@/lib/auth/guards";
 import { db } from "@/lib/db";
-import { listAudit } from "@/lib/data/audit";
+import { fetchAuditHead, listAudit } from "@/lib/data/audit";
+import { keptHeadLine, listPublishedHeads } from "@/lib/data/auditHeads";
 import { getCurrentUser } from "@/lib/session";
 import { VerifyButton } from "./VerifyButton";
 
@@ -10,11 +11,23 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
   requireRole(await getCurrentUser(), "reviewer");
   const raw = Number((await searchParams).study);
   const studyId = Number.isInteger(raw) && raw > 0 ? raw : undefined;
-  const entries = await listAudit(db, { limit: 200, studyId });
+  const [entries, head, published] = await Promise.all([listAudit(db, { limit: 200, studyId }), fetchAuditHead(db), listPublishedHeads(db, 14)]);
   return (
     <section className="space-y-4">
       <h1>Audit trail</h1>
-      <p className="max-w-prose text-sm text-slate-700">Every consequential action, newest first. Each entry carries the SHA-256 of the previous entry and its own content, so an edited or deleted entry breaks the chain.</p>
+      <p className="max-w-prose text-sm text-slate-700">
+        Every consequential action, newest first. Each entry carries a keyed hash (HMAC-SHA-256, with a key the database does not hold) of the
+        previous entry and its own content, so an edited, inserted or deleted entry breaks the chain. Each day the chain&apos;s head is mailed to
+        the ethics reviewers: keep those mails (or download the head below), and paste them here to check that nothing up to them was changed
+        or removed later, even by someone with full access to the database.
+      </p>
+      <p className="text-sm">Head now: entry {head.lastId} of {head.entries}, <code className="break-all text-xs">{keptHeadLine(head)}</code> · <a href="/api/audit/head" download>Download this head</a></p>
+      {published.length > 0 && (
+        <details className="text-sm">
+          <summary>Heads published on the last {published.length} days</summary>
+          <ul className="mt-1 font-mono text-xs">{published.map((p) => <li key={p.day}>{p.day} {keptHeadLine(p)}</li>)}</ul>
+        </details>
+      )}
       <VerifyButton />
       <form className="flex items-end gap-2" method="get">
         <div><label htmlFor="audit-study">Study number</label><input id="audit-study" name="study" className="input w-32" inputMode="numeric" defaultValue={studyId ?? ""} /></div>
