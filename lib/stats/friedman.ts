@@ -1,10 +1,10 @@
-import { jStat } from "./jstat";
+import { chiSquareUpperTail } from "./chiSquareUpperTail";
 
 export interface FriedmanResult {
-  /** Friedman's chi-squared, corrected for ties. */
-  statistic: number;
+  /** Friedman's chi-squared, corrected for ties; null when no subject's values differ. */
+  statistic: number | null;
   df: number;
-  p: number;
+  p: number | null;
   n: number;
   k: number;
 }
@@ -12,10 +12,11 @@ export interface FriedmanResult {
 /**
  * Friedman's rank test for k related samples (Friedman 1937, JASA 32:675–701): rank each subject's
  * k values (ties get mid-ranks), Q = [12/(n·k·(k+1))·ΣR_j² − 3n(k+1)] / [1 − Σ(t³ − t)/(n(k³ − k))],
- * df = k − 1, p from the χ² distribution (jstat). Used for error rates, which are not normal.
+ * df = k − 1, p from the χ² distribution (jstat). Used for error rates, which are not normal. When
+ * every subject's values are all tied the statistic cannot be computed: null.
  *
  * Cost: O(n·k log k).
- * @throws Error when fewer than 2 subjects or 2 conditions, or rows differ in length.
+ * @throws Error when fewer than 2 subjects or 2 conditions, rows differ in length or a value is not finite.
  * @example friedman([[1, 2, 3], [1, 3, 2], [1, 2, 3]]) // {statistic: 4.6667, df: 2, p: 0.0970, n: 3, k: 3}
  */
 export function friedman(data: readonly (readonly number[])[]): FriedmanResult {
@@ -27,6 +28,7 @@ export function friedman(data: readonly (readonly number[])[]): FriedmanResult {
   let tieSum = 0;
   for (const row of data) {
     if (row.length !== k) throw new Error("friedman requires the same number of conditions for every subject");
+    if (row.some((v) => !Number.isFinite(v))) throw new Error("friedman requires finite values");
     const order = row.map((v, i) => ({ v, i })).sort((a, b) => a.v - b.v);
     let start = 0;
     while (start < k) {
@@ -41,8 +43,7 @@ export function friedman(data: readonly (readonly number[])[]): FriedmanResult {
   }
   const raw = (12 / (n * k * (k + 1))) * rankSums.reduce((s, r) => s + r * r, 0) - 3 * n * (k + 1);
   const correction = 1 - tieSum / (n * (k * k * k - k));
-  const statistic = correction > 0 ? raw / correction : Number.NaN;
+  const statistic = correction > 0 ? raw / correction : null;
   const df = k - 1;
-  const p = Number.isNaN(statistic) ? Number.NaN : 1 - jStat.chisquare.cdf(statistic, df);
-  return { statistic, df, p, n, k };
+  return { statistic, df, p: statistic === null ? null : chiSquareUpperTail(statistic, df), n, k };
 }

@@ -1,9 +1,14 @@
 export { jStat } from "./jstat";
+export { fUpperTail } from "./fUpperTail";
+export { chiSquareUpperTail } from "./chiSquareUpperTail";
 export { tInterval, type IntervalSummary } from "./tInterval";
 export { pairedT, type PairedTResult } from "./pairedT";
+export { welchT, type WelchTResult } from "./welchT";
 export { holm } from "./holm";
 export { leastSquaresLine, type RegressionLine } from "./linearRegression";
 export { orthonormalContrasts } from "./orthonormalContrasts";
+export { sumToZeroCoding } from "./sumToZeroCoding";
 export { sphericity, type MauchlyResult, type SphericityResult } from "./sphericity";
+export { mixedAnova, type AnovaEffect, type AnovaFactor, type MixedAnovaInput } from "./mixedAnova";
 export { rmAnova, type RmAnovaEffect, type WithinFactor } from "./rmAnova";
 export { friedman, type FriedmanResult } from "./friedman";

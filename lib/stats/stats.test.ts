@@ -1,7 +1,7 @@
 import fc from "fast-check";
-import { linearRegression, sampleStandardDeviation, tTest, mean } from "simple-statistics";
+import { sampleStandardDeviation, tTest, mean } from "simple-statistics";
 import { describe, expect, test } from "vitest";
-import { friedman, holm, leastSquaresLine, orthonormalContrasts, pairedT, rmAnova, sphericity, tInterval } from "./index";
+import { friedman, holm, leastSquaresLine, mixedAnova, orthonormalContrasts, pairedT, rmAnova, sphericity, tInterval } from "./index";
 import { jStat } from "./jstat";
 
 const EPS = 1e-9;
@@ -21,10 +21,14 @@ describe("paired t", () => {
     // Reference: jstat tscore(mu, sample) = (mu − mean)/(s/√n) with the sample SD, and ttest's p.
     expect(r.t).toBeCloseTo(-jStat.tscore(0, d), 10);
     expect(r.p).toBeCloseTo(jStat.ttest(0, d, 2), 10);
-    // Reference: simple-statistics sampleStandardDeviation (n − 1).
-    expect(r.dz).toBeCloseTo(mean(d) / sampleStandardDeviation(d), 12);
     // simple-statistics' tTest divides by the population SD (n), so it is larger by √(n/(n − 1)).
-    expect(tTest(d, 0)).toBeCloseTo(r.t * Math.sqrt(6 / 5), 10);
+    expect(tTest(d, 0)).toBeCloseTo(r.t! * Math.sqrt(6 / 5), 10);
+    // d_z against R: rReference.test.ts.
+  });
+  test("differences that do not vary: t, p and d_z are null with a reason", () => {
+    const r = pairedT([2, 3, 4], [1, 2, 3]);
+    expect([r.t, r.p, r.dz]).toEqual([null, null, null]);
+    expect(r.note).toMatch(/do not vary/);
   });
   test("rejects one pair", () => {
     expect(() => pairedT([1], [2])).toThrow("pairedT requires at least 2 pairs");
@@ -35,9 +39,13 @@ describe("t interval", () => {
   test("uses t(0.975, 9) = 2.262 (printed t tables, e.g. any statistics textbook)", () => {
     const values = [1, 2, 3, 4, 5, 6, 7, 8, 9, 10];
     const r = tInterval(values);
-    const half = (r.ci95[1] - r.ci95[0]) / 2;
-    expect(half / (r.sd / Math.sqrt(10))).toBeCloseTo(2.262, 3);
+    const half = (r.ci95[1]! - r.ci95[0]!) / 2;
+    expect(half / (r.sd! / Math.sqrt(10))).toBeCloseTo(2.262, 3);
     expect(r.mean).toBe(5.5);
+  });
+  test("one value: the SD and interval are null; no value: everything is null", () => {
+    expect(tInterval([4])).toEqual({ mean: 4, sd: null, ci95: [null, null] });
+    expect(tInterval([])).toEqual({ mean: null, sd: null, ci95: [null, null] });
   });
 });
 
@@ -66,15 +74,18 @@ describe("Holm", () => {
 });
 
 describe("least-squares line", () => {
-  test("agrees with simple-statistics linearRegression and a hand-worked case", () => {
+  test("a hand-worked case (R's lm: rReference.test.ts)", () => {
     // By hand: x̄ = 2, Sxy = 4.5, Sxx = 2 → slope 2.25, intercept 4.1667 − 4.5 = −0.3333;
     // SSres = 0.041667, SStot = 10.1667 → r² = 0.99590.
     const r = leastSquaresLine([1, 2, 3], [2, 4, 6.5]);
     expect(r.slope).toBeCloseTo(2.25, 12);
     expect(r.intercept).toBeCloseTo(-1 / 3, 12);
     expect(r.r2).toBeCloseTo(0.9959, 4);
-    const ref = linearRegression([[1, 2], [2, 4], [3, 6.5]]);
-    expect(r.slope).toBeCloseTo(ref.m, 12);
+  });
+  test("not computable: one point, a non-finite point, all x equal (null with a reason)", () => {
+    expect(leastSquaresLine([1], [2])).toMatchObject({ slope: null, note: expect.stringMatching(/at least 2 points/) });
+    expect(leastSquaresLine([1, Number.POSITIVE_INFINITY, 3], [2, 3, 4])).toMatchObject({ slope: null, note: expect.stringMatching(/not finite/) });
+    expect(leastSquaresLine([2, 2], [1, 3])).toMatchObject({ slope: null, intercept: null, r2: null });
   });
 });
 
@@ -88,7 +99,7 @@ describe("orthonormal contrasts", () => {
   });
 });
 
-describe("repeated-measures ANOVA", () => {
+describe("repeated-measures and mixed ANOVA (values against R: rReference.test.ts)", () => {
   test("two levels: F equals the paired t squared (t and p from jstat), GG ε = 1", () => {
     // Identity: for two levels the repeated-measures F is the square of the paired t (common practice).
     const data = [[3.1, 3.9], [2.8, 3.0], [3.5, 4.4], [2.9, 3.6], [3.3, 3.2], [3.0, 3.8]];
@@ -133,40 +144,70 @@ describe("repeated-measures ANOVA", () => {
       expect(r.p).toBeCloseTo(jStat.ttest(0, score, 2), 9);
     }
   });
-  test("GG ε lies within [1/(k−1), 1] and HF ε ≥ GG ε (property)", () => {
+  test("two groups × two levels: the interaction F is the squared independent t of the difference scores; the group F that of the subject means", () => {
+    // Textbook identity (e.g. Maxwell & Delaney ch. 12): in a 2 (between) × 2 (within) design the
+    // within × between interaction tests whether the groups' mean differences differ: F = t² of
+    // Student's two-sample t (pooled variance) on d = y1 − y2; the group effect is t² on the
+    // participants' means. Unequal group sizes (4 and 6).
+    const a = [[3.1, 3.9], [2.8, 3.0], [3.5, 4.4], [2.9, 3.6]];
+    const b = [[3.3, 3.2], [3.0, 3.8], [3.6, 3.5], [2.7, 3.1], [3.2, 3.0], [3.9, 4.1]];
+    const rows = mixedAnova({ values: [...a, ...b], groups: [0, 0, 0, 0, 1, 1, 1, 1, 1, 1], within: [{ name: "gain", levels: 2 }], between: [{ name: "group", levels: 2 }], order: ["gain", "group"] });
+    expect(rows.map((r) => `${r.effect} ${r.kind}`)).toEqual(["gain within", "group between", "gain:group mixed"]);
+    const pooledT = (x: number[], y: number[]) => {
+      const mx = mean(x), my = mean(y);
+      const sp2 = ((x.length - 1) * sampleStandardDeviation(x) ** 2 + (y.length - 1) * sampleStandardDeviation(y) ** 2) / (x.length + y.length - 2);
+      return (mx - my) / Math.sqrt(sp2 * (1 / x.length + 1 / y.length));
+    };
+    const diff = (g: number[][]) => g.map((r) => r[0]! - r[1]!);
+    const avg = (g: number[][]) => g.map((r) => (r[0]! + r[1]!) / 2);
+    expect(rows[2]!.F).toBeCloseTo(pooledT(diff(a), diff(b)) ** 2, 9);
+    expect(rows[2]!.df2).toBe(8);
+    expect(rows[1]!.F).toBeCloseTo(pooledT(avg(a), avg(b)) ** 2, 9);
+  });
+  test("GG ε lies within [1/(k−1), 1] and Huynh–Feldt ε ≥ GG ε (property; nothing is clamped)", () => {
+    // Cauchy–Schwarz gives the GG bounds; Lecoutre's ε̃ − ε has the sign of (pε + 2)(pε − 1) ≥ 0.
     fc.assert(
       fc.property(subjectsArb(4), (data) => {
         const [row] = rmAnova(data, [{ name: "c", levels: 4 }]);
-        if (Number.isNaN(row!.epsilonGG)) return;
+        if (row!.epsilonGG === null) {
+          expect(row!.note).toMatch(/singular/);
+          return;
+        }
         expect(row!.epsilonGG).toBeGreaterThanOrEqual(1 / 3 - EPS);
         expect(row!.epsilonGG).toBeLessThanOrEqual(1 + EPS);
-        expect(row!.epsilonHF).toBeLessThanOrEqual(1 + EPS);
+        expect(row!.epsilonHF!).toBeGreaterThanOrEqual(row!.epsilonGG - EPS);
       }),
     );
   });
-  test("rejects one subject and ragged rows", () => {
+  test("rejects one subject and ragged rows; a group without participants", () => {
     expect(() => rmAnova([[1, 2]], [{ name: "c", levels: 2 }])).toThrow("rmAnova requires at least 2 subjects");
-    expect(() => rmAnova([[1, 2], [1]], [{ name: "c", levels: 2 }])).toThrow(/2 cells per subject/);
+    expect(() => rmAnova([[1, 2], [1]], [{ name: "c", levels: 2 }])).toThrow(/2 cells per participant/);
+    expect(() => mixedAnova({ values: [[1, 2], [2, 3], [3, 5]], groups: [0, 0, 0], within: [{ name: "c", levels: 2 }], between: [{ name: "g", levels: 2 }] })).toThrow(/every combination of between levels/);
   });
 });
 
 describe("sphericity", () => {
-  test("identity covariance: W = 1, ε = 1; a rank-1 covariance gives GG ε = 1/p (Greenhouse & Geisser 1959 lower bound)", () => {
-    const s = sphericity([[2, 0, 0], [0, 2, 0], [0, 0, 2]], 10);
-    expect(s.mauchly.W).toBeCloseTo(1, 12);
-    expect(s.epsilonGG).toBeCloseTo(1, 12);
+  test("identity covariance: W = 1, ε = 1; a rank-1 covariance is singular: not computable", () => {
+    const s = sphericity([[2, 0, 0], [0, 2, 0], [0, 0, 2]], 10, 4);
+    expect(s.computable && s.mauchly.W).toBeCloseTo(1, 12);
+    expect(s.computable && s.epsilonGG).toBeCloseTo(1, 12);
     const v = [1, 2, 3];
-    const rank1 = v.map((a) => v.map((b) => a * b));
-    expect(sphericity(rank1, 10).epsilonGG).toBeCloseTo(1 / 3, 9);
+    const rank1 = sphericity(v.map((a) => v.map((b) => a * b)), 10, 4);
+    expect(rank1.computable).toBe(false);
   });
-  test("Mauchly χ² follows the formula −(1 − f)(n − 1)·ln W on a worked case", () => {
-    // Eigenvalues of diag(1, 4): W = 4/2.5² = 0.64; f = (8 + 2 + 2)/(6·2·9) = 1/9; χ² = −(8/9)·9·ln 0.64.
-    const s = sphericity([[1, 0], [0, 4]], 10);
+  test("Mauchly χ² follows −ν(1 − f)·ln W on a worked case; W undefined below p error df", () => {
+    // Eigenvalues of diag(1, 4): W = 4/2.5² = 0.64; ν = 9, f = (8 + 2 + 2)/(6·2·9) = 1/9; χ² = −(8/9)·9·ln 0.64.
+    const s = sphericity([[1, 0], [0, 4]], 9, 3);
+    if (!s.computable) throw new Error("expected a computable case");
     expect(s.mauchly.W).toBeCloseTo(0.64, 12);
     expect(s.mauchly.chi2).toBeCloseTo(-8 * Math.log(0.64), 9);
     expect(s.mauchly.df).toBe(2);
     // GG by hand: (1 + 4)² / (2·(1 + 16)) = 25/34.
     expect(s.epsilonGG).toBeCloseTo(25 / 34, 12);
+    // The issue's case: n = 3 participants, k = 4 conditions → ν = 2 < p = 3.
+    const small = sphericity([[1, 0.2, 0], [0.2, 1, 0], [0, 0, 1]], 2, 4);
+    expect(small.computable).toBe(false);
+    expect(!small.computable && small.reason).toMatch(/only 2 error degrees of freedom \(needs ≥ 3\)/);
   });
 });
 
