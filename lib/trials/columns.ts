@@ -31,4 +31,9 @@ export const LEGACY_TRIAL_COLUMNS = [...TEXT_COLUMNS, ...INTEGER_COLUMNS, ...SIZ
 /** A column named f_NAME holds the level of within-subject factor NAME. */
 export const FACTOR_PREFIX = "f_";
 
+/** A column named b_NAME holds the level of between-subject factor NAME (constant within a participant). */
+export const BETWEEN_PREFIX = "b_";
+
+export type FlagColumn = (typeof FLAG_COLUMNS)[number];
+
 export type TrialColumn = (typeof TRIAL_COLUMNS)[number];

@@ -1,7 +1,10 @@
 export {
+  BETWEEN_PREFIX,
   COORDINATE_COLUMNS,
   FLAG_COLUMNS,
   FACTOR_PREFIX,
+  FLAG_COLUMNS,
+  type FlagColumn,
   INTEGER_COLUMNS,
   LEGACY_TRIAL_COLUMNS,
   TRIAL_COLUMNS,
@@ -12,4 +15,4 @@ export { TrialTableError } from "./trialTableError";
 export { makeRowReader, type RowReader } from "./rowReader";
 export { forEachTrialRow, type TrialTableReadOptions, type TrialTableReadSummary } from "./forEachTrialRow";
 export { readTrialTable } from "./readTrialTable";
-export { formatTrialRow, toTrialCsv, trialCsvHeader } from "./toTrialCsv";
+export { formatTrialRow, toTrialCsv, trialCsvHeader, type TrialCsvExtras } from "./toTrialCsv";

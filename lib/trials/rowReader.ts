@@ -1,4 +1,4 @@
-import { COORDINATE_COLUMNS, FACTOR_PREFIX, FLAG_COLUMNS, INTEGER_COLUMNS, LEGACY_TRIAL_COLUMNS, TRIAL_COLUMNS } from "./columns";
+import { BETWEEN_PREFIX, COORDINATE_COLUMNS, FACTOR_PREFIX, FLAG_COLUMNS, INTEGER_COLUMNS, LEGACY_TRIAL_COLUMNS, TRIAL_COLUMNS } from "./columns";
 import type { LegacyTrialRow, Located, TrialRow } from "./trialRow";
 import { decimalValue } from "./decimalValue";
 import { TrialTableError } from "./trialTableError";
@@ -15,7 +15,8 @@ export type RowReader<R> = (fields: readonly string[], line: number) => Located<
  * since running zod per row costs about 0.9 s per million rows on the project machine (measured),
  * a third of the analysis budget; a property test checks both agree. Numbers go through
  * decimalValue (same doubles as Number()); rows with the same raw factor fields share one frozen
- * `factors` object.
+ * `factors` object, and likewise `groups` (the b_NAME between-factor levels, only with b_ columns).
+ * The optional flag columns timed_out, recentered and clutched (0/1) become booleans when all three are present.
  *
  * Cost: O(columns) to build; O(columns) per row.
  * @throws TrialTableError on a missing or duplicate column.
@@ -42,21 +43,57 @@ export function makeRowReader(header: readonly string[], file: string, legacy: b
   const iTime = at("time_ms");
   const iHit = at("hit");
   const coords = legacy ? [] : COORDINATE_COLUMNS.map((c) => at(c));
-  // the movement flags are read only when all three columns are there (interfaces.md: optional)
-  const flags = !legacy && FLAG_COLUMNS.every((c) => index.has(c)) ? FLAG_COLUMNS.map((c) => at(c)) : null;
-  const factorColumns = header
-    .map((name, i) => ({ name: name.trim(), i }))
-    .filter((h) => h.name.startsWith(FACTOR_PREFIX) && h.name.length > FACTOR_PREFIX.length)
-    .map((h) => ({ factor: h.name.slice(FACTOR_PREFIX.length), i: h.i }));
-
-  const factorCache = new Map<string, Record<string, string>>();
-  /** Raw factor fields of the last row that built or looked up `factors`, and that object. */
-  const lastFactorFields: string[] = factorColumns.map(() => "");
-  let lastFactors: Readonly<Record<string, string>> | undefined;
+  const prefixed = (prefix: string) =>
+    header
+      .map((name, i) => ({ name: name.trim(), i }))
+      .filter((h) => h.name.startsWith(prefix) && h.name.length > prefix.length)
+      .map((h) => ({ factor: h.name.slice(prefix.length), i: h.i }));
+  const factorColumns = prefixed(FACTOR_PREFIX);
+  const betweenColumns = prefixed(BETWEEN_PREFIX);
+  // The movement flags are read only when all three columns are there (interfaces.md: optional).
+  const flagAt = FLAG_COLUMNS.every((c) => index.has(c)) ? FLAG_COLUMNS.map((c) => at(c)) : [-1, -1, -1];
+  const [iTimedOut, iRecentered, iClutched] = flagAt as [number, number, number];
 
   const fail = (line: number, i: number, message: string): never => {
     throw new TrialTableError({ file, line, column: header[i]!.trim() }, message);
   };
+  /** Levels of f_ or b_ columns as one frozen object per distinct raw text (the previous row's fields checked first). */
+  const levelReader = (columns: { factor: string; i: number }[], empty: string) => {
+    const cache = new Map<string, Record<string, string>>();
+    const lastFields: string[] = columns.map(() => "");
+    let last: Readonly<Record<string, string>> | undefined;
+    return (fields: readonly string[], line: number): Readonly<Record<string, string>> => {
+      let same = last !== undefined;
+      for (let k = 0; same && k < columns.length; k++) same = fields[columns[k]!.i] === lastFields[k];
+      if (same) return last!;
+      let key = "";
+      for (let k = 0; k < columns.length; k++) key += fields[columns[k]!.i]! + "\u0000";
+      let cached = cache.get(key);
+      if (cached === undefined) {
+        const built: Record<string, string> = {};
+        for (const f of columns) {
+          const v = fields[f.i]!;
+          if (v.length === 0) fail(line, f.i, empty);
+          built[f.factor] = v;
+        }
+        cached = Object.freeze(built);
+        if (cache.size < FACTOR_CACHE_LIMIT) cache.set(key, cached);
+      }
+      for (let k = 0; k < columns.length; k++) lastFields[k] = fields[columns[k]!.i]!;
+      last = cached;
+      return cached;
+    };
+  };
+  const readFactors = levelReader(factorColumns, "empty text, expected a code");
+  const readGroups = betweenColumns.length > 0 ? levelReader(betweenColumns, "empty: the participant is in no group of this between factor") : undefined;
+  const flag = (fields: readonly string[], line: number, i: number): boolean | undefined => {
+    if (i < 0) return undefined;
+    const t = fields[i]!.trim();
+    if (t === "1") return true;
+    if (t === "0") return false;
+    return fail(line, i, `must be 0 or 1, got "${fields[i]}"`);
+  };
+
   const text = (fields: readonly string[], line: number, i: number): string => {
     const v = fields[i]!;
     if (v.length === 0) fail(line, i, "empty text, expected a code");
@@ -67,11 +104,6 @@ export function makeRowReader(header: readonly string[], file: string, legacy: b
     const v = decimalValue(s);
     if (!Number.isFinite(v) || (v === 0 && s.trim().length === 0)) fail(line, i, `not a number: "${s}"`);
     return v;
-  };
-  const flag = (fields: readonly string[], line: number, i: number): boolean => {
-    const v = fields[i]!.trim();
-    if (v !== "0" && v !== "1") fail(line, i, `must be 0 or 1, got "${fields[i]}"`);
-    return v === "1";
   };
   const int = (fields: readonly string[], line: number, i: number): number => {
     const v = num(fields, line, i);
@@ -91,43 +123,18 @@ export function makeRowReader(header: readonly string[], file: string, legacy: b
     const trial = int(fields, line, integers[2]!);
     if (trial < 1) fail(line, integers[2]!, `trial must be ≥ 1, got ${trial}`);
     // Rows of a sequence repeat their factor levels: one frozen object per distinct raw text.
-    // The previous row's raw factor fields are checked first (no key string built when they match).
-    let same = lastFactors !== undefined;
-    for (let k = 0; same && k < factorColumns.length; k++) same = fields[factorColumns[k]!.i] === lastFactorFields[k];
-    let factors: Readonly<Record<string, string>>;
-    if (same) {
-      factors = lastFactors!;
-    } else {
-      let key = "";
-      for (let k = 0; k < factorColumns.length; k++) key += fields[factorColumns[k]!.i]! + "\u0000";
-      let cached = factorCache.get(key);
-      if (cached === undefined) {
-        const built: Record<string, string> = {};
-        for (const f of factorColumns) built[f.factor] = text(fields, line, f.i);
-        cached = Object.freeze(built);
-        if (factorCache.size < FACTOR_CACHE_LIMIT) factorCache.set(key, cached);
-      }
-      factors = cached;
-      for (let k = 0; k < factorColumns.length; k++) lastFactorFields[k] = fields[factorColumns[k]!.i]!;
-      lastFactors = cached;
-    }
+    const factors = readFactors(fields, line);
+    const groups = readGroups === undefined ? undefined : readGroups(fields, line);
+    const timedOut = flag(fields, line, iTimedOut);
+    const recentered = flag(fields, line, iRecentered);
+    const clutched = flag(fields, line, iClutched);
     const participant = text(fields, line, iParticipant);
     const condition = text(fields, line, iCondition);
     const block = int(fields, line, integers[0]!);
     const sequence = int(fields, line, integers[1]!);
     const hit = hitText === "1";
     // Explicit literals, no object spread: spreading here cost ~30 µs per row in V8 (measured).
-    if (legacy) return { participant, condition, block, sequence, trial, amplitude, width, timeMs, hit, factors, line };
-    if (flags) {
-      return {
-        participant, condition, block, sequence, trial, amplitude, width, timeMs, hit, factors, line,
-        fromX: num(fields, line, coords[0]!), fromY: num(fields, line, coords[1]!),
-        toX: num(fields, line, coords[2]!), toY: num(fields, line, coords[3]!),
-        startX: num(fields, line, coords[4]!), startY: num(fields, line, coords[5]!),
-        endX: num(fields, line, coords[6]!), endY: num(fields, line, coords[7]!),
-        timedOut: flag(fields, line, flags[0]!), recentered: flag(fields, line, flags[1]!), clutched: flag(fields, line, flags[2]!),
-      };
-    }
+    if (legacy) return { participant, condition, block, sequence, trial, amplitude, width, timeMs, hit, factors, groups, timedOut, recentered, clutched, line };
     return {
       participant,
       condition,
@@ -139,6 +146,10 @@ export function makeRowReader(header: readonly string[], file: string, legacy: b
       timeMs,
       hit,
       factors,
+      groups,
+      timedOut,
+      recentered,
+      clutched,
       line,
       fromX: num(fields, line, coords[0]!),
       fromY: num(fields, line, coords[1]!),

@@ -18,6 +18,14 @@ export const legacyTrialRowSchema = z.object({
   hit: z.boolean(),
   /** Level of each within-subject factor (from the f_NAME columns), by factor NAME. */
   factors: z.record(z.string().min(1), text),
+  /** Level of each between-subject factor (from the b_NAME columns), by factor NAME; absent without b_ columns. */
+  groups: z.record(z.string().min(1), text).optional(),
+  /** Movement flags (optional columns timed_out, recentered, clutched); absent when the table has none. The movement ended by its time limit. */
+  timedOut: z.boolean().optional(),
+  /** A recenter happened during the movement (recentered column). */
+  recentered: z.boolean().optional(),
+  /** A clutch happened during the movement (clutched column). */
+  clutched: z.boolean().optional(),
 });
 
 /** One movement of the trial table, as the analysis, the export and the session recorder see it. */
@@ -30,10 +38,6 @@ export const trialRowSchema = legacyTrialRowSchema.extend({
   startY: coordinate,
   endX: coordinate,
   endY: coordinate,
-  /** Movement flags (optional columns timed_out, recentered, clutched); absent when the table has none. */
-  timedOut: z.boolean().optional(),
-  recentered: z.boolean().optional(),
-  clutched: z.boolean().optional(),
 });
 
 export type LegacyTrialRow = z.infer<typeof legacyTrialRowSchema>;
