@@ -1,5 +1,5 @@
 import type { AnalysisResult } from "@/lib/analysis";
-import { fmt, fmtP } from "./format";
+import { fmt, fmtP, pct } from "./format";
 
 /** The analysis as tables: condition summaries, regressions, ANOVA, post hoc, cells and sequences. */
 export function ResultTables({ result }: { result: AnalysisResult }) {
@@ -20,7 +20,7 @@ export function ResultTables({ result }: { result: AnalysisResult }) {
             {result.conditions.map((c) => (
               <tr key={c.condition}>
                 <td>{c.condition}</td><td>{c.n}</td><td>{fmt(c.tp.mean)} ± {fmt(c.tp.sd)}</td><td>[{fmt(c.tp.ci95[0])}, {fmt(c.tp.ci95[1])}]</td>
-                <td>{fmt(c.mt.mean, 0)}</td><td>{fmt(c.errorRate.mean * 100, 1)} %</td>
+                <td>{fmt(c.mt.mean, 0)}</td><td>{fmt(pct(c.errorRate.mean), 1)} %</td>
               </tr>
             ))}
           </tbody>

@@ -51,6 +51,8 @@ export function UploadTrialTable() {
         <label htmlFor="exclude">Exclusion</label>
         <select id="exclude" name="exclude" className="input" defaultValue="misfire">
           <option value="misfire">misfires (&lt; A/2 or &gt; 2W off)</option>
+          <option value="mt3sd">movement times beyond mean ± 3 SD</option>
+          <option value="misfire+mt3sd">misfires, then times beyond ± 3 SD</option>
           <option value="none">none</option>
         </select>
       </div>
@@ -60,6 +62,21 @@ export function UploadTrialTable() {
           <option value="px">px</option><option value="mm">mm</option><option value="deg">deg</option>
         </select>
       </div>
+      <div className="space-y-1 lg:col-span-2">
+        <label htmlFor="geometry">Coordinates</label>
+        <select id="geometry" name="geometry" className="input" defaultValue="plane">
+          <option value="plane">points on the screen (px, mm or visual degrees)</option>
+          <option value="sphere">view directions, yaw and pitch (deg, view mode)</option>
+        </select>
+      </div>
+      <fieldset className="space-y-1 lg:col-span-3">
+        <legend>Remove flagged movements (time-outs otherwise count as errors)</legend>
+        <div className="flex flex-wrap gap-4 text-sm">
+          <label><input type="checkbox" name="drop_timed_out" value="1" /> timed out</label>
+          <label><input type="checkbox" name="drop_recentered" value="1" /> recentered</label>
+          <label><input type="checkbox" name="drop_clutched" value="1" /> clutched</label>
+        </div>
+      </fieldset>
       <div className="sm:col-span-2 lg:col-span-5 flex flex-wrap items-center gap-3">
         <button type="submit" className="btn" disabled={progress !== null}>Upload and analyse</button>
         {progress !== null && (

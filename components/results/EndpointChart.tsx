@@ -5,7 +5,7 @@ import { fmt } from "./chartStyle";
 
 /** One condition's end points in target widths on the task axis, with the ±We/2 band shaded. */
 export function EndpointChart({ cloud }: { cloud: EndpointCloud }) {
-  const half = Number.isFinite(cloud.weOverW) ? cloud.weOverW / 2 : 0.5;
+  const half = cloud.weOverW !== null ? cloud.weOverW / 2 : 0.5;
   const hits = cloud.points.filter((p) => p.hit);
   const misses = cloud.points.filter((p) => !p.hit);
   return (

@@ -20,7 +20,7 @@ export function FittsChart({ view }: { view: ResultsView }) {
           const st = seriesStyle(i);
           const fit = analysis.regression.find((r) => r.condition === c);
           const pts = view.awMeans.filter((p) => p.condition === c).map((p) => ({ x: p.ide, y: p.mt }));
-          const line = fit && Number.isFinite(fit.slope) ? [{ x: lo, y: fit.intercept + fit.slope * lo }, { x: hi, y: fit.intercept + fit.slope * hi }] : [];
+          const line = fit && fit.slope !== null && fit.intercept !== null ? [{ x: lo, y: fit.intercept + fit.slope * lo }, { x: hi, y: fit.intercept + fit.slope * hi }] : [];
           return [
             <Scatter key={`p-${c}`} name={c} data={pts} shape={st.shape} fill={st.fill} stroke={st.stroke} isAnimationActive={false} />,
             <Scatter key={`l-${c}`} name={`${c} fit`} legendType="none" data={line} line={{ stroke: st.stroke, strokeDasharray: st.dash, strokeWidth: 1.5 }} shape={() => <g />} isAnimationActive={false} />,

@@ -1,5 +1,5 @@
 import type { ResultsView } from "@/lib/results";
-import { fmt, fmtP } from "./chartStyle";
+import { fmt, fmtP, pct } from "./chartStyle";
 
 type Analysis = NonNullable<ResultsView["analysis"]>;
 
@@ -48,7 +48,7 @@ export function ConditionTable({ analysis }: { analysis: Analysis }) {
               <td>{c.condition}</td><td>{c.n}</td>
               <td>{fmt(c.tp.mean)} [{fmt(c.tp.ci95[0])}, {fmt(c.tp.ci95[1])}]</td>
               <td>{fmt(c.mt.mean, 0)} [{fmt(c.mt.ci95[0], 0)}, {fmt(c.mt.ci95[1], 0)}]</td>
-              <td>{fmt(c.errorRate.mean * 100, 1)} [{fmt(c.errorRate.ci95[0] * 100, 1)}, {fmt(c.errorRate.ci95[1] * 100, 1)}]</td>
+              <td>{fmt(pct(c.errorRate.mean), 1)} [{fmt(pct(c.errorRate.ci95[0]), 1)}, {fmt(pct(c.errorRate.ci95[1]), 1)}]</td>
               <td>{fmt(f?.intercept, 0)}</td><td>{fmt(f?.slope, 0)}</td><td>{fmt(f?.r2, 3)}</td>
             </tr>
           );

@@ -7,10 +7,12 @@ type Measure = "tp" | "errorRate";
 /** Bars of a per-condition mean with its 95 % t interval as whiskers (TP in bits/s or error rate in %). */
 export function IntervalBarChart({ analysis, measure }: { analysis: NonNullable<ResultsView["analysis"]>; measure: Measure }) {
   const scale = measure === "errorRate" ? 100 : 1;
+  // A mean that cannot be computed draws no bar; an interval that cannot be computed no whiskers (null).
   const data = analysis.conditions.map((c) => {
     const s = c[measure];
-    const mean = s.mean * scale;
-    return { condition: c.condition, mean, ci: [mean - s.ci95[0] * scale, s.ci95[1] * scale - mean], label: mean.toFixed(measure === "tp" ? 2 : 1) };
+    const mean = s.mean === null ? null : s.mean * scale;
+    const ci = mean !== null && s.ci95[0] !== null && s.ci95[1] !== null ? [mean - s.ci95[0] * scale, s.ci95[1] * scale - mean] : [0, 0];
+    return { condition: c.condition, mean, ci, label: mean === null ? "–" : mean.toFixed(measure === "tp" ? 2 : 1) };
   });
   return (
     <ResponsiveContainer width="100%" height={260}>

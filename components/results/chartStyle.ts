@@ -25,3 +25,8 @@ export function fmtP(p: number | null | undefined): string {
   if (p === null || p === undefined || !Number.isFinite(p)) return "–";
   return p < 0.001 ? "< .001" : p.toFixed(3).replace(/^0/, "");
 }
+
+/** A fraction as a percentage; null stays null. */
+export function pct(x: number | null | undefined): number | null {
+  return x === null || x === undefined ? null : 100 * x;
+}

@@ -2,19 +2,22 @@
 import { basename } from "node:path";
 import { parseArgs } from "node:util";
 import { z } from "zod";
-import { analyzeTrialFile } from "../../lib/analysis";
-import { TrialTableError } from "../../lib/trials";
+import { analyzeTrialFile, EXCLUSION_RULES } from "../../lib/analysis";
+import { FLAG_COLUMNS, TrialTableError } from "../../lib/trials";
 import { formatReport } from "./formatReport";
 
-const usage = "usage: analyze FILE.csv [--json] [--start actual|nominal] [--exclude misfire|none] [--unit px|mm|deg] [--anova tp,mt,errorRate] [--legacy]";
+const usage =
+  "usage: analyze FILE.csv [--json] [--start actual|nominal] [--exclude misfire|mt3sd|misfire+mt3sd|none] [--drop-flagged timed_out,recentered,clutched] [--unit px|mm|deg] [--geometry plane|sphere] [--anova tp,mt,errorRate] [--legacy]";
 
 const argsSchema = z.object({
   file: z.string().min(1),
   json: z.boolean(),
   legacy: z.boolean(),
   start: z.enum(["actual", "nominal"]),
-  exclude: z.enum(["misfire", "none"]),
+  exclude: z.enum(EXCLUSION_RULES),
+  dropFlagged: z.array(z.enum(FLAG_COLUMNS)),
   unit: z.enum(["px", "mm", "deg"]),
+  geometry: z.enum(["plane", "sphere"]),
   anova: z.array(z.enum(["tp", "mt", "errorRate"])),
 });
 
@@ -29,14 +32,18 @@ async function main(argv: string[]): Promise<number> {
         legacy: { type: "boolean", default: false },
         start: { type: "string", default: "actual" },
         exclude: { type: "string", default: "misfire" },
+        "drop-flagged": { type: "string", default: "" },
         unit: { type: "string", default: "px" },
+        geometry: { type: "string", default: "plane" },
         anova: { type: "string", default: "tp" },
       },
     });
     if (positionals.length !== 1) throw new Error("expected exactly one FILE.csv");
-    args = argsSchema.parse({ ...values, anova: values.anova.split(",").filter(Boolean), file: positionals[0] });
+    const { "drop-flagged": dropFlagged, ...rest } = values;
+    args = argsSchema.parse({ ...rest, dropFlagged: dropFlagged.split(",").filter(Boolean), anova: values.anova.split(",").filter(Boolean), file: positionals[0] });
+    if (args.geometry === "sphere" && args.unit !== "deg") throw new Error("--geometry sphere needs --unit deg (view directions in degrees)");
   } catch (err) {
-    const detail = err instanceof z.ZodError ? err.issues.map((i) => `--${i.path.join(".")}: ${i.message}`).join("; ") : (err as Error).message;
+    const detail = err instanceof z.ZodError ? err.issues.map((i) => `--${String(i.path[0] ?? "").replace(/[A-Z]/g, (c) => "-" + c.toLowerCase())}: ${i.message}`).join("; ") : (err as Error).message;
     process.stderr.write(`analyze: ${detail}\n${usage}\n`);
     return 2;
   }
@@ -45,7 +52,9 @@ async function main(argv: string[]): Promise<number> {
       file: args.file,
       start: args.start,
       exclude: args.exclude,
+      dropFlagged: args.dropFlagged,
       unit: args.unit,
+      geometry: args.geometry,
       anova: args.anova,
       legacy: args.legacy,
     });

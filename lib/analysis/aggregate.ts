@@ -1,169 +1,105 @@
-import { mean } from "simple-statistics";
-import { friedman, holm, leastSquaresLine, pairedT, rmAnova, tInterval, type WithinFactor } from "../stats";
-import type { AnalysisResult, AnovaRow, CellSummary, ConditionSummary, MissingReport, PosthocRow, RegressionRow, SequenceSummary } from "./result";
-import { codeCollator } from "./summarizeSequences";
+import { friedman } from "../stats/friedman";
+import { tInterval } from "../stats/tInterval";
+import { analysisDesign } from "./analysisDesign";
+import { anovaRows, type Measure } from "./anovaRows";
+import { cellMeans, meanOfPaths } from "./cellMeans";
+import { fittsRegression } from "./fittsRegression";
+import { posthocRows } from "./posthocRows";
+import type { AnalysisResult, CellSummary, ConditionSummary, GroupConditionSummary, GroupReport, SequenceSummary } from "./result";
 
-type Measure = "tp" | "mt" | "errorRate";
+/** The one rule for values that cannot be computed, as the output states it. */
+export const MISSING_VALUE_RULE =
+  "A value that cannot be computed is null, never a number, and is never averaged: a sequence whose IDe, MT or TP is not finite is left out of every summary (cells, conditions, regressions, plots) and listed in sequencesDropped with its reason; a participant without a value in every condition is left out of every test (ANOVAs, post hoc tests, Friedman) and listed in missing; a statistic that still cannot be computed is null with the reason in its note; Holm's correction counts every planned comparison.";
 
-/**
- * Mean of means per participant × condition (Soukoreff & MacKenzie 2004, IJHCS 61:751–789):
- * each cell averages the participant's sequence values in that condition.
- *
- * Cost: O(s).
- */
-export function cellMeans(sequences: readonly SequenceSummary[]): CellSummary[] {
-  const groups = new Map<string, SequenceSummary[]>();
-  for (const s of sequences) {
-    const key = `${s.participant}\u0000${s.condition}`;
-    const g = groups.get(key);
-    if (g) g.push(s);
-    else groups.set(key, [s]);
-  }
-  return [...groups.values()]
-    .map((g) => ({
-      participant: g[0]!.participant,
-      condition: g[0]!.condition,
-      tp: mean(g.map((s) => s.tp)),
-      mt: mean(g.map((s) => s.mt)),
-      errorRate: mean(g.map((s) => s.errorRate)),
-      we: mean(g.map((s) => s.we)),
-      ide: mean(g.map((s) => s.ide)),
-      sequences: g.length,
-    }))
-    .sort((a, b) => codeCollator.compare(a.participant, b.participant) || codeCollator.compare(a.condition, b.condition));
-}
+type Aggregated = Pick<
+  AnalysisResult,
+  "cells" | "conditions" | "regression" | "anova" | "posthoc" | "regressionNominal" | "anovaMt" | "anovaErrorRate" | "friedman" | "missing" | "notes" | "groups" | "conditionsByGroup" | "posthocWithinGroups" | "posthocBetweenGroups" | "rule"
+>;
 
-function fitts(sequences: readonly SequenceSummary[], conditions: readonly string[], x: "ide" | "id"): RegressionRow[] {
-  return conditions.map((condition) => {
-    const points = new Map<string, { x: number[]; mt: number[] }>();
-    for (const s of sequences) {
-      if (s.condition !== condition) continue;
-      const key = `${s.amplitude}\u0000${s.width}`;
-      const p = points.get(key) ?? { x: [], mt: [] };
-      p.x.push(s[x]);
-      p.mt.push(s.mt);
-      points.set(key, p);
-    }
-    const xs = [...points.values()].map((p) => mean(p.x));
-    const ys = [...points.values()].map((p) => mean(p.mt));
-    const line = xs.length >= 2 && xs.every(Number.isFinite) ? leastSquaresLine(xs, ys) : { intercept: Number.NaN, slope: Number.NaN, r2: Number.NaN };
-    return { condition, ...line, points: xs.length };
-  });
-}
-
-function toAnovaRow(e: ReturnType<typeof rmAnova>[number]): AnovaRow {
-  const { effect, df1, df2, F, p, epsilonGG, pGG, partialEta2, ...extra } = e;
-  return { effect, df1, df2, F, p, epsilonGG, pGG, partialEta2, ...extra };
+function summarise(cells: readonly CellSummary[]) {
+  return { n: cells.length, tp: tInterval(cells.map((c) => c.tp)), mt: tInterval(cells.map((c) => c.mt)), errorRate: tInterval(cells.map((c) => c.errorRate)) };
 }
 
 /**
- * Builds everything above the sequences: cells, condition summaries (mean, sample SD, 95 % t
- * interval over participants), Fitts regressions on IDe and on the nominal ID, the
- * repeated-measures ANOVA (one-way over conditions, and full factorial over the f_ factors), post
- * hoc paired t-tests with Holm correction, Friedman's test on error rates, and the missing-cell
- * report. Participants lacking a condition are left out of the inferential statistics.
+ * Builds everything above the sequences (aggregate): cells (mean of means), condition summaries
+ * (mean, sample SD, 95 % t interval over participants, path means), Fitts regressions on IDe and on
+ * the nominal ID, the ANOVA of TP (and of MT and error rate when asked) over the within factors
+ * (f_) and the between factors (b_), post hoc tests (paired, within groups, Welch between groups,
+ * Holm), Friedman's test on error rates, groups, and the report of who was left out. The sequences
+ * given are all finite (summarizeSequences dropped the others): see MISSING_VALUE_RULE.
  *
- * Cost: O(s + p·c²) plus the ANOVA's O(p·c³).
+ * Cost: O(s log s + p·c²) plus the ANOVAs.
+ * @throws never.
  */
 export function aggregate(
   sequences: readonly SequenceSummary[],
-  factorsByCondition: ReadonlyMap<string, Record<string, string>>,
+  factorsByCondition: ReadonlyMap<string, Readonly<Record<string, string>>>,
+  groupsByParticipant: ReadonlyMap<string, Readonly<Record<string, string>>>,
+  order: readonly string[],
   anovaMeasures: readonly Measure[],
-): Pick<AnalysisResult, "cells" | "conditions" | "regression" | "anova" | "posthoc" | "regressionNominal" | "anovaMt" | "anovaErrorRate" | "friedman" | "missing" | "notes"> {
-  const notes: string[] = [];
-  const cells = cellMeans(sequences);
-  const conditions = [...new Set(cells.map((c) => c.condition))].sort(codeCollator.compare);
-  const participants = [...new Set(cells.map((c) => c.participant))].sort(codeCollator.compare);
-  const cellOf = new Map(cells.map((c) => [`${c.participant}\u0000${c.condition}`, c]));
+): Aggregated {
+  const cells = cellMeans(sequences, groupsByParticipant);
+  const design = analysisDesign(cells, factorsByCondition, groupsByParticipant, order);
+  const notes = [...design.notes];
+  const { conditions } = design;
 
   const conditionSummaries: ConditionSummary[] = conditions.map((condition) => {
     const cs = cells.filter((c) => c.condition === condition);
-    return {
-      condition,
-      n: cs.length,
-      tp: tInterval(cs.map((c) => c.tp)),
-      mt: tInterval(cs.map((c) => c.mt)),
-      errorRate: tInterval(cs.map((c) => c.errorRate)),
-      factors: factorsByCondition.get(condition) ?? {},
-    };
+    const summary: ConditionSummary = { condition, ...summarise(cs), factors: { ...(factorsByCondition.get(condition) ?? {}) } };
+    const withPath = cs.filter((c) => c.path !== undefined);
+    if (withPath.length > 0) summary.path = { ...meanOfPaths(withPath.map((c) => c.path!)), participants: withPath.length };
+    return summary;
   });
+  if (design.complete.length < 2 || conditions.length < 2) notes.push("the tests need at least 2 complete participants and 2 conditions");
 
-  const missingCells: MissingReport["cells"] = [];
-  const complete = participants.filter((p) => {
-    let ok = true;
-    for (const condition of conditions) {
-      if (!cellOf.has(`${p}\u0000${condition}`)) {
-        missingCells.push({ participant: p, condition });
-        ok = false;
-      }
-    }
-    return ok;
-  });
-  const missing: MissingReport = { participantsExcluded: participants.length - complete.length, participantsIncluded: complete.length, cells: missingCells };
-  if (missing.participantsExcluded > 0) {
-    notes.push(`${missing.participantsExcluded} participant(s) lacking a condition were left out of the ANOVA, post hoc and Friedman tests`);
-  }
-  const matrix = (measure: Measure) => complete.map((p) => conditions.map((c) => cellOf.get(`${p}\u0000${c}`)![measure]));
-  const canTest = complete.length >= 2 && conditions.length >= 2;
-  if (!canTest) notes.push("inferential statistics need at least 2 complete participants and 2 conditions");
-
-  const factorNames = [...new Set([...factorsByCondition.values()].flatMap((f) => Object.keys(f)))].sort();
-  const anovaFor = (measure: Measure): AnovaRow[] => {
-    if (!canTest) return [];
-    const data = matrix(measure);
-    if (data.some((r) => r.some((v) => !Number.isFinite(v)))) {
-      notes.push(`ANOVA on ${measure} skipped: a cell value is not finite`);
-      return [];
-    }
-    const rows = rmAnova(data, [{ name: "condition", levels: conditions.length }]).map(toAnovaRow);
-    const factors: (WithinFactor & { values: string[] })[] = factorNames
-      .map((name) => {
-        const values = [...new Set(conditions.map((c) => factorsByCondition.get(c)?.[name] ?? ""))].sort(codeCollator.compare);
-        return { name, levels: values.length, values };
-      })
-      .filter((f) => {
-        if (f.levels < 2) notes.push(`factor ${f.name} has a single level and is not tested`);
-        return f.levels >= 2;
-      });
-    if (factors.length === 0) return rows;
-    const cellCount = factors.reduce((n, f) => n * f.levels, 1);
-    const cellIndex = (condition: string) =>
-      factors.reduce((idx, f) => idx * f.levels + f.values.indexOf(factorsByCondition.get(condition)?.[f.name] ?? ""), 0);
-    const members = Array.from({ length: cellCount }, () => [] as number[]);
-    conditions.forEach((c, j) => members[cellIndex(c)]!.push(j));
-    if (members.some((m) => m.length === 0)) {
-      notes.push(`factorial ANOVA on ${measure} skipped: not every combination of factor levels has a condition`);
-      return rows;
-    }
-    const factorial = data.map((r) => members.map((m) => mean(m.map((j) => r[j]!))));
-    return [...rows, ...rmAnova(factorial, factors).map(toAnovaRow)];
-  };
-
-  const anova = anovaFor("tp");
-  const posthoc: PosthocRow[] = [];
-  if (canTest) {
-    const data = matrix("tp");
-    for (let i = 0; i < conditions.length; i++) {
-      for (let j = i + 1; j < conditions.length; j++) {
-        const r = pairedT(data.map((row) => row[i]!), data.map((row) => row[j]!));
-        posthoc.push({ a: conditions[i]!, b: conditions[j]!, meanDiff: r.meanDiff, t: r.t, df: r.df, p: r.p, pHolm: 0, dz: r.dz });
-      }
-    }
-    holm(posthoc.map((r) => r.p)).forEach((p, i) => (posthoc[i]!.pHolm = p));
+  const anova = anovaRows(design, "tp", notes);
+  const { posthoc, withinGroups, betweenGroups } = posthocRows(design);
+  let friedmanResult: Aggregated["friedman"] = null;
+  if (design.complete.length >= 2 && conditions.length >= 2) {
+    const f = friedman(design.complete.map((_, p) => conditions.map((_, c) => design.cell(p, c).errorRate)));
+    friedmanResult = { measure: "errorRate", ...f, note: f.statistic === null ? "every participant's error rates are tied across conditions: the statistic cannot be computed" : null };
   }
 
-  const result: ReturnType<typeof aggregate> = {
+  const result: Aggregated = {
     cells,
     conditions: conditionSummaries,
-    regression: fitts(sequences, conditions, "ide"),
+    regression: fittsRegression(sequences, conditions, "ide"),
     anova,
     posthoc,
-    regressionNominal: fitts(sequences, conditions, "id"),
-    friedman: canTest ? { measure: "errorRate", ...friedman(matrix("errorRate")) } : null,
-    missing,
+    regressionNominal: fittsRegression(sequences, conditions, "id"),
+    friedman: friedmanResult,
+    missing: design.missing,
+    groups: null,
+    rule: MISSING_VALUE_RULE,
     notes,
   };
-  if (anovaMeasures.includes("mt")) result.anovaMt = anovaFor("mt");
-  if (anovaMeasures.includes("errorRate")) result.anovaErrorRate = anovaFor("errorRate");
+  if (anovaMeasures.includes("mt")) result.anovaMt = anovaRows(design, "mt", notes);
+  if (anovaMeasures.includes("errorRate")) result.anovaErrorRate = anovaRows(design, "errorRate", notes);
+  if (design.between.length > 0) {
+    const labelOf = (groups: Readonly<Record<string, string>> | undefined) => design.between.map((f) => groups?.[f.name] ?? "").join(" / ");
+    const everyone = [...new Set(cells.map((c) => c.participant))];
+    const report: GroupReport = {
+      factors: design.between.map((f) => f.name),
+      groups: design.groupLabels.map((group, g) => {
+        return {
+          group,
+          groups: design.groupLevels[g]!,
+          participants: everyone.filter((p) => labelOf(groupsByParticipant.get(p)) === group).length,
+          complete: design.groupOf.filter((x) => x === g).length,
+        };
+      }),
+    };
+    result.groups = report;
+    const byGroup: GroupConditionSummary[] = [];
+    for (const g of report.groups) {
+      for (const condition of conditions) {
+        const cs = cells.filter((c) => c.condition === condition && labelOf(c.groups) === g.group);
+        if (cs.length > 0) byGroup.push({ groups: g.groups, group: g.group, condition, ...summarise(cs) });
+      }
+    }
+    result.conditionsByGroup = byGroup;
+    if (withinGroups) result.posthocWithinGroups = withinGroups;
+    if (betweenGroups) result.posthocBetweenGroups = betweenGroups;
+  }
   return result;
 }

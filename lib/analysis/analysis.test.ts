@@ -1,15 +1,16 @@
 import fc from "fast-check";
-import { linearRegression, mean } from "simple-statistics";
+import { mean } from "simple-statistics";
 import { describe, expect, test } from "vitest";
 import { generateTrialRows } from "../../experiments/generate";
 import type { TrialRow } from "../trials";
+import { analysisOptionsSchema } from "./options";
 import { TrialTableError } from "../trials";
 import {
   analyzeLegacyTrials,
   analyzeTrials,
   EFFECTIVE_WIDTH_FACTOR,
+  buildResult,
   isMisfire,
-  mergeSequenceStates,
   movementKey,
   pathAccuracy,
   projectMovement,
@@ -106,8 +107,8 @@ describe("properties of the pipeline", () => {
     fc.assert(
       fc.property(fc.shuffledSubarray(rows.map((_, i) => i), { minLength: rows.length, maxLength: rows.length }), (perm) => {
         const out = analyzeTrials(perm.map((i) => rows[i]!));
-        out.conditions.forEach((c, i) => expect(c.tp.mean).toBeCloseTo(ref.conditions[i]!.tp.mean, 9));
-        out.anova.forEach((a, i) => expect(a.F).toBeCloseTo(ref.anova[i]!.F, 6));
+        out.conditions.forEach((c, i) => expect(c.tp.mean).toBeCloseTo(ref.conditions[i]!.tp.mean!, 9));
+        out.anova.forEach((a, i) => expect(a.F).toBeCloseTo(ref.anova[i]!.F!, 6));
       }),
       { numRuns: 10 },
     );
@@ -117,23 +118,17 @@ describe("properties of the pipeline", () => {
     const out = analyzeTrials(twice);
     expect(out.cells).toHaveLength(2 * ref.cells.length);
     out.conditions.forEach((c, i) => {
-      expect(c.tp.mean).toBeCloseTo(ref.conditions[i]!.tp.mean, 9);
-      expect(c.mt.mean).toBeCloseTo(ref.conditions[i]!.mt.mean, 9);
+      expect(c.tp.mean).toBeCloseTo(ref.conditions[i]!.tp.mean!, 9);
+      expect(c.mt.mean).toBeCloseTo(ref.conditions[i]!.mt.mean!, 9);
       expect(c.n).toBe(2 * ref.conditions[i]!.n);
     });
   });
-  test("Fitts regression agrees with simple-statistics linearRegression on the A×W means", () => {
+  test("Fitts regression runs over the A×W means pooled over participants (values against R's lm: lib/stats/rReference.test.ts)", () => {
     for (const reg of ref.regression) {
-      const seqs = ref.sequences.filter((s) => s.condition === reg.condition);
-      const keys = [...new Set(seqs.map((s) => `${s.amplitude}/${s.width}`))];
-      const pts = keys.map((k) => {
-        const g = seqs.filter((s) => `${s.amplitude}/${s.width}` === k);
-        return [mean(g.map((s) => s.ide)), mean(g.map((s) => s.mt))];
-      });
-      const fit = linearRegression(pts);
-      expect(reg.slope).toBeCloseTo(fit.m, 9);
-      expect(reg.intercept).toBeCloseTo(fit.b, 9);
+      // 2 amplitudes × 2 widths = 4 points; a steeper MT for harder ID makes the slope positive (simulated b > 0).
       expect(reg.points).toBe(4);
+      expect(reg.slope!).toBeGreaterThan(0);
+      expect(reg.note).toBeNull();
     }
   });
   test("the simulator's built-in We ≈ W is recovered (pipeline consistency, not an outside reference)", () => {
@@ -142,16 +137,14 @@ describe("properties of the pipeline", () => {
     expect(mean(many.sequences.map((s) => s.we))).toBeGreaterThan(28);
     expect(mean(many.sequences.map((s) => s.we))).toBeLessThan(36);
   });
-  test("two halves merged equal the whole (mergeSequenceStates)", () => {
-    const opts = { start: "actual" as const, exclude: "misfire" as const, file: "x" };
+  test("two halves merged equal the whole (TrialAccumulator.merge, as the worker threads use it)", () => {
+    const opts = analysisOptionsSchema.parse({ file: "x" });
     const whole = new TrialAccumulator(opts), a = new TrialAccumulator(opts), b = new TrialAccumulator(opts);
     rows.forEach((r, i) => { whole.add(r); (i < rows.length / 2 ? a : b).add(r); });
-    for (const [key, s] of whole.states) {
-      const sa = a.states.get(key), sb = b.states.get(key);
-      const m = sa && sb ? mergeSequenceStates(sa, sb) : (sa ?? sb)!;
-      expect(m.dxM2).toBeCloseTo(s.dxM2, 6);
-      expect(m.kept).toBe(s.kept);
-    }
+    a.merge(b);
+    const one = buildResult(whole, opts), two = buildResult(a, opts);
+    expect(two.sequences).toEqual(one.sequences);
+    expect(two.anova).toEqual(one.anova);
   });
 });
 
@@ -163,16 +156,23 @@ describe("aggregation details", () => {
     expect(r.missing.cells).toEqual([{ participant: "P02", condition: "stick-6" }]);
     expect(r.anova[0]!.df2).toBe(3 * (4 - 1));
   });
-  test("factorial rows for f_ factors, named like technique:gain", () => {
-    const r = analyzeTrials(small(), {}, undefined);
-    expect(r.anova.map((a) => a.effect)).toEqual(["condition", "gain", "technique", "gain:technique"]);
+  test("factorial rows for f_ factors, named in the order of their columns (interfaces.md: technique:gain)", () => {
+    // The simulator's rows list technique before gain, as the columns would.
+    const r = analyzeTrials(small());
+    expect(r.anova.map((a) => a.effect)).toEqual(["condition", "technique", "gain", "technique:gain"]);
+    // With the header's order given (f_gain before f_technique), the names follow it.
+    expect(analyzeTrials(small(), {}, undefined, ["gain", "technique"]).anova.map((a) => a.effect)).toEqual(["condition", "gain", "technique", "gain:technique"]);
   });
-  test("legacy tables: widths from error rate, flagged", () => {
-    const r = analyzeLegacyTrials(small().map(({ fromX: _a, fromY: _b, toX: _c, toY: _d, startX: _e, startY: _f, endX: _g, endY: _h, ...rest }) => rest));
+  test("legacy tables: We from the error rate, flagged (MacKenzie 1992 table, from memory: 4 % → 1.006 W)", () => {
+    // One sequence of 25 movements with one miss: E = 4 %, so We = 1.006·W = 32.19 for W = 32.
+    const base = { participant: "P1", condition: "A", block: 1, sequence: 1, amplitude: 256, width: 32, timeMs: 600, factors: {} };
+    const rows = Array.from({ length: 25 }, (_, i) => ({ ...base, trial: i + 1, hit: i !== 7 }));
+    const r = analyzeLegacyTrials(rows);
     expect(r.widthMethod).toBe("errorRate");
     expect(r.notes[0]).toMatch(/error rates/);
-    const s = r.sequences[0]!;
-    expect(s.we).toBeCloseTo(widthFromErrorRate(s.width, s.errorRate), 12);
+    expect(r.sequences[0]!.errorRate).toBeCloseTo(0.04, 12);
+    expect(r.sequences[0]!.we).toBeCloseTo(1.006 * 32, 1);
+    expect(r.sequences[0]!.ae).toBe(256);
   });
 });
 
@@ -198,11 +198,152 @@ describe("path accuracy", () => {
     expect(quiet.tac).toBe(0);
     expect(quiet.mdc).toBe(0);
   });
-  test("per sequence means through analyzeTrials with sampled paths", () => {
+  test("per sequence and per condition means through analyzeTrials with path measures", () => {
     const rows = small().slice(0, 9);
-    const paths = new Map(rows.map((r) => [movementKey(r.participant, r.condition, r.block, r.sequence, r.trial), [{ x: r.fromX, y: r.fromY }, { x: (r.fromX + r.toX) / 2 + 3, y: (r.fromY + r.toY) / 2 }, { x: r.endX, y: r.endY }]]));
-    const out = analyzeTrials(rows, {}, paths);
-    expect(out.sequences[0]!.path?.movements).toBe(out.sequences[0]!.n);
-    expect(out.pathMovements?.length).toBe(out.sequences[0]!.n);
+    const measures = new Map(rows.map((r, i) => [movementKey(r.participant, r.condition, r.block, r.sequence, r.trial), { tre: i % 2, tac: 1, mdc: 2, odc: 0, mv: 1.5, me: 2, mo: -1 }]));
+    const out = analyzeTrials(rows, {}, measures);
+    const s = out.sequences[0]!;
+    expect(s.path?.movements).toBe(s.n);
+    expect(out.pathMovements?.length).toBe(s.n);
+    expect(s.path?.mdc).toBe(2);
+    expect(out.conditions[0]!.path).toMatchObject({ tac: 1, mv: 1.5, mo: -1, participants: 1 });
+  });
+  test("strip targets: re-entry counts only the distance along the axis (a strip is long across it)", () => {
+    // The path passes the target centre's line 30 units off the axis: outside a circle of W = 20,
+    // inside a strip of W = 20; it enters, leaves by 15 and comes back.
+    const path = [0, 50, 100, 115, 100].map((x) => ({ x, y: 30 }));
+    expect(pathAccuracy(path, from, to, 20, { task: "ring", hysteresis: 1 }).tre).toBe(0);
+    expect(pathAccuracy(path, from, to, 20, { task: "strip", hysteresis: 1 }).tre).toBe(1);
+  });
+});
+
+describe("exclusion rules and flags", () => {
+  const base = { participant: "P1", condition: "A", block: 1, fromX: 0, fromY: 0, toX: 100, toY: 0, startX: 0, startY: 0, endY: 0, amplitude: 100, width: 10, factors: {}, hit: true };
+  /** 20 movements in one sequence: 19 at 500 ms, one at 5000 ms; end points spread along the axis. */
+  const cell = () => Array.from({ length: 20 }, (_, i) => ({ ...base, sequence: 1, trial: i + 1, endX: 100 + ((i % 5) - 2), timeMs: i === 19 ? 5000 : 500 }));
+  test("mt3sd (common practice): a time beyond the cell's mean ± 3 SD is removed, worked by hand", () => {
+    // By hand: mean = (19·500 + 5000)/20 = 725; SS = 19·225² + 4275² = 19 237 500; SD = √(SS/19) = 1006.2;
+    // |5000 − 725| = 4275 > 3·1006.2 = 3018.7, while |500 − 725| = 225 is not.
+    const r = analyzeTrials(cell(), { exclude: "mt3sd", start: "nominal" });
+    expect(r.exclusions.mt3sd).toBe(1);
+    expect(r.excluded).toBe(1);
+    expect(r.sequences[0]!.mt).toBe(500);
+    expect(analyzeTrials(cell(), { exclude: "misfire", start: "nominal" }).sequences[0]!.mt).toBe(725);
+  });
+  test("misfire+mt3sd: misfires first, then the MT rule over what remains; counts per rule", () => {
+    const rows = [...cell(), { ...base, sequence: 1, trial: 21, endX: 20, timeMs: 480 }];
+    const r = analyzeTrials(rows, { exclude: "misfire+mt3sd", start: "nominal" });
+    expect(r.exclusions).toMatchObject({ misfire: 1, mt3sd: 1 });
+    expect(r.excluded).toBe(2);
+  });
+  test("a time-out counts as an error by default, is exempt from the misfire rule, and can be dropped", () => {
+    const rows: TrialRow[] = cell().slice(0, 10);
+    rows[3] = { ...rows[3]!, endX: 10, timedOut: true, hit: true, timeMs: 10_000 };
+    const kept = analyzeTrials(rows, { start: "nominal" });
+    expect(kept.timeoutsKept).toBe(1);
+    expect(kept.excluded).toBe(0);
+    expect(kept.sequences[0]!.errorRate).toBeCloseTo(0.1, 12);
+    expect(kept.sequences[0]!.timedOut).toBe(1);
+    const dropped = analyzeTrials(rows, { start: "nominal", dropFlagged: ["timed_out"] });
+    expect(dropped.exclusions.timed_out).toBe(1);
+    expect(dropped.sequences[0]!.n).toBe(9);
+    expect(dropped.sequences[0]!.errorRate).toBe(0);
+  });
+});
+
+describe("one rule for values that cannot be computed", () => {
+  test("a sequence with We = 0 is left out everywhere; its participant, lacking a cell, from every test", () => {
+    const rows = small();
+    // P03's only stick-6 sequence at A = 128, W = 16: every end point on the target centre → SDx = 0.
+    const target = rows.filter((r) => r.participant === "P03" && r.condition === "stick-6");
+    const keys = new Set(target.map((r) => r.sequence));
+    const flat = rows.map((r) => (r.participant === "P03" && r.condition === "stick-6" ? { ...r, endX: r.toX, endY: r.toY, hit: true } : r));
+    const r = analyzeTrials(flat);
+    expect(r.sequencesDropped.filter((d) => d.participant === "P03").length).toBe(keys.size);
+    expect(r.sequencesDropped[0]!.reason).toMatch(/We = 0/);
+    expect(r.cells.some((c) => c.participant === "P03" && c.condition === "stick-6")).toBe(false);
+    expect(r.missing.participants).toEqual([{ participant: "P03", reason: "no value in condition stick-6" }]);
+    // The same 4 participants in the ANOVA, the post hoc tests and Friedman's test.
+    expect(r.anova[0]!.df2).toBe(3 * 3);
+    expect(r.posthoc[0]!.df).toBe(3);
+    expect(r.friedman!.n).toBe(4);
+    expect(r.rule).toMatch(/never averaged/);
+    // No NaN anywhere in the JSON: a value that cannot be computed is null.
+    expect(JSON.stringify(r)).not.toMatch(/NaN|Infinity/);
+  });
+  test("every statistic in the JSON is a finite number or null (property over random small tables)", () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 2, max: 4 }), fc.integer({ min: 1, max: 1000 }), (participants, seed) => {
+        const r = analyzeTrials(generateTrialRows({ participants, gains: [4, 6], techniques: ["motion"], amplitudes: [128], widths: [16, 32], targetsPerRing: 5, seed }));
+        JSON.stringify(r, (_k, v: unknown) => {
+          if (typeof v === "number") expect(Number.isFinite(v)).toBe(true);
+          return v;
+        });
+      }),
+      { numRuns: 15 },
+    );
+  });
+});
+
+describe("mixed designs from b_ columns", () => {
+  const grouped = () => small().map((r) => ({ ...r, groups: { group: ["P01", "P02", "P03"].includes(r.participant) ? "novice" : "gamer" } }));
+  test("between effects, their interactions and post hoc within and between groups", () => {
+    const r = analyzeTrials(grouped());
+    expect(r.anova.map((a) => `${a.effect}/${a.kind}`)).toEqual([
+      "condition/within",
+      "technique/within", "gain/within", "group/between",
+      "technique:gain/within", "technique:group/mixed", "gain:group/mixed",
+      "technique:gain:group/mixed",
+    ]);
+    // N = 5 in g = 2 groups: within effects have (N − g)·p = 3 error df, between effects N − g = 3.
+    expect(r.anova.find((a) => a.effect === "group")!.df2).toBe(3);
+    expect(r.anova.find((a) => a.effect === "technique:group")!.df2).toBe(3);
+    expect(r.groups?.groups.map((g) => [g.group, g.participants])).toEqual([["gamer", 2], ["novice", 3]]);
+    expect(r.posthocWithinGroups!.length).toBe(2 * 6);
+    expect(r.posthocBetweenGroups!.length).toBe(4);
+    expect(r.cells[0]!.groups).toEqual({ group: "novice" });
+  });
+  test("a between factor that changes within a participant is bad input naming the line and column", () => {
+    const rows = grouped().map((r, i) => (i === 40 ? { ...r, groups: { group: r.groups.group === "novice" ? "gamer" : "novice" }, line: 42 } : r));
+    expect(() => analyzeTrials(rows, { file: "t.csv" })).toThrow(/^t\.csv:42:b_group: participant P\d+ is in level/);
+  });
+  test("a between factor with one level is bad input", () => {
+    expect(() => analyzeTrials(small().map((r) => ({ ...r, groups: { group: "novice" } })), { file: "t.csv" })).toThrow('t.csv:1:b_group: between factor group has a single level ("novice"); a between factor needs at least 2');
+  });
+});
+
+describe("view mode on the sphere (science.md §1; spherical trigonometry)", () => {
+  // Spherical law of cosines (any spherical trigonometry text): cos c = sin φ1 sin φ2 + cos φ1 cos φ2 cos Δλ,
+  // an independent way to the great-circle distance than the code's atan2(|S × T|, S·T).
+  const lawOfCosines = (y1: number, p1: number, y2: number, p2: number) => {
+    const r = Math.PI / 180;
+    return Math.acos(Math.sin(p1 * r) * Math.sin(p2 * r) + Math.cos(p1 * r) * Math.cos(p2 * r) * Math.cos((y2 - y1) * r)) / r;
+  };
+  test("the amplitude is the great-circle distance: 20° of yaw at 60° pitch is about 10°, not 20°", () => {
+    const m = projectMovement(0, 60, 20, 60, 20, 60, "sphere");
+    expect(m.a).toBeCloseTo(lawOfCosines(0, 60, 20, 60), 9);
+    expect(m.a).toBeCloseTo(9.9619, 3); // cos c = 0.75 + 0.25·cos 20° = 0.98492
+    expect(m.dx).toBeCloseTo(0, 9);
+    expect(projectMovement(0, 60, 20, 60, 20, 60).a).toBe(20);
+  });
+  test("dx is the signed angle along the great circle; the end error is P's great-circle distance from T", () => {
+    fc.assert(
+      fc.property(fc.double({ min: -60, max: 60, noNaN: true }), fc.double({ min: -50, max: 50, noNaN: true }), fc.double({ min: -3, max: 3, noNaN: true }), fc.double({ min: -3, max: 3, noNaN: true }), (yaw, pitch, ey, ep) => {
+        const t = { x: yaw + 25, y: pitch / 2 };
+        const m = projectMovement(yaw, pitch, t.x, t.y, t.x + ey, t.y + ep, "sphere");
+        expect(m.a).toBeCloseTo(lawOfCosines(yaw, pitch, t.x, t.y), 6);
+        expect(m.endError).toBeCloseTo(lawOfCosines(t.x, t.y, t.x + ey, t.y + ep), 5);
+        // Right spherical triangle T, foot F, P (Napier's rules): cos TP = cos TF · cos FP, with TF = |dx|.
+        const r = Math.PI / 180;
+        expect(Math.cos(m.endError * r)).toBeCloseTo(Math.cos(m.dx * r) * Math.cos(m.across * r), 9);
+      }),
+    );
+  });
+  test("the analysis reads view tables on the sphere when asked (and only with unit deg)", () => {
+    const rows = [0, 1, 2].map((i) => ({ participant: "P1", condition: "A", block: 1, sequence: 1, trial: i + 1, amplitude: 10, width: 2, factors: {}, fromX: 0, fromY: 60, toX: 20, toY: 60, startX: 0, startY: 60, endX: 20 + (i - 1) * 0.5, endY: 60, timeMs: 500, hit: true }));
+    const r = analyzeTrials(rows, { unit: "deg", geometry: "sphere", start: "nominal" });
+    expect(r.geometry).toBe("sphere");
+    expect(r.sequences[0]!.ae).toBeCloseTo(lawOfCosines(0, 60, 20, 60), 2);
+    expect(() => analyzeTrials(rows, { unit: "px", geometry: "sphere" })).toThrow(/sphere geometry needs unit deg/);
   });
 });

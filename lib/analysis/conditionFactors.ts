@@ -1,5 +1,5 @@
 import { TrialTableError } from "../trials/trialTableError";
-import type { SequenceState } from "./sequenceState";
+import type { SequenceInfo } from "./sequenceInfo";
 
 /**
  * The f_ factor levels of each condition, checked for consistency: every sequence of a condition
@@ -8,14 +8,15 @@ import type { SequenceState } from "./sequenceState";
  * Cost: O(s·f).
  * @throws TrialTableError naming the first line of a sequence whose level disagrees.
  */
-export function conditionFactors(states: Iterable<SequenceState>, file: string): Map<string, Record<string, string>> {
-  const byCondition = new Map<string, Record<string, string>>();
-  for (const s of states) {
+export function conditionFactors(sequences: Iterable<SequenceInfo>, file: string): Map<string, Readonly<Record<string, string>>> {
+  const byCondition = new Map<string, Readonly<Record<string, string>>>();
+  for (const s of sequences) {
     const known = byCondition.get(s.condition);
     if (known === undefined) {
       byCondition.set(s.condition, s.factors);
       continue;
     }
+    if (known === s.factors) continue;
     for (const [name, level] of Object.entries(s.factors)) {
       if (known[name] !== level) {
         throw new TrialTableError(

@@ -1,4 +1,5 @@
 import type { Point } from "../task/point";
+import { taskAxis, type Geometry } from "./taskAxis";
 
 /** Path accuracy measures of one movement (units of the table for MV, ME, MO). */
 export interface PathAccuracy {
@@ -18,9 +19,16 @@ export interface PathAccuracy {
   mo: number;
 }
 
+/** The seven measures, in the order they are reported. */
+export const PATH_KEYS = ["tre", "tac", "mdc", "odc", "mv", "me", "mo"] as const;
+
 export interface PathAccuracyOptions {
   /** Noise band in the table's unit: a change must exceed it to count. Default 0.05·W. */
   hysteresis?: number;
+  /** Points in a plane (default) or view directions on the sphere (degrees of yaw and pitch). */
+  geometry?: Geometry;
+  /** The target's shape for TRE: a circle of diameter W (ring, default) or a strip W wide across the axis. */
+  task?: "ring" | "strip";
 }
 
 function countDirectionChanges(values: readonly number[], h: number): number {
@@ -45,8 +53,10 @@ function countDirectionChanges(values: readonly number[], h: number): number {
 /**
  * Path accuracy of one sampled movement (MacKenzie, Kauppinen & Silfverberg, CHI 2001; definitions
  * from memory): the path is moved so the task axis runs from the start target's centre along +x;
- * y is the signed perpendicular distance. TRE counts target entries after the first (the target a
- * circle of diameter W); TAC counts sign changes of y; MDC sign changes of Δy; ODC sign changes of
+ * y is the signed perpendicular distance (on the view sphere: x the angle along the great circle
+ * through both targets, y the angle from it; see taskAxis). TRE counts target entries after the
+ * first (ring task: the target a circle of diameter W; strip task: a strip W wide across the axis,
+ * so only x counts); TAC counts sign changes of y; MDC sign changes of Δy; ODC sign changes of
  * Δx; MV = √(Σ(y − ȳ)²/(n − 1)); ME = Σ|y|/n; MO = ȳ. Every change must exceed the hysteresis band
  * h so sensor noise is not counted (Schmitt-trigger style: a sign must pass ±h, a direction must
  * retreat by more than h from its running extreme; Δ = 0 never counts).
@@ -63,28 +73,28 @@ export function pathAccuracy(
   options: PathAccuracyOptions = {},
 ): PathAccuracy {
   if (samples.length < 2) throw new Error("pathAccuracy requires at least 2 samples");
-  const ax = to.x - from.x;
-  const ay = to.y - from.y;
-  const length = Math.hypot(ax, ay);
-  if (!(length > 0)) throw new Error("pathAccuracy requires distinct start and target centres");
-  const ux = ax / length;
-  const uy = ay / length;
+  let axis: ReturnType<typeof taskAxis>;
+  try {
+    axis = taskAxis(options.geometry ?? "plane", from, to);
+  } catch {
+    throw new Error("pathAccuracy requires distinct start and target centres");
+  }
   const h = options.hysteresis ?? 0.05 * width;
   const xs: number[] = [];
   const ys: number[] = [];
   for (const p of samples) {
-    const dx = p.x - from.x;
-    const dy = p.y - from.y;
-    xs.push(dx * ux + dy * uy);
-    ys.push(-dx * uy + dy * ux);
+    xs.push(axis.along(p));
+    ys.push(axis.across(p));
   }
-  // Target re-entry with a band: inside at r ≤ W/2, outside again only beyond W/2 + h.
+  // Target re-entry with a band: inside at r ≤ W/2, outside again only beyond W/2 + h; r is the
+  // distance from the target centre (ring) or along the axis from the strip's centre line (strip).
+  const strip = options.task === "strip";
   let inside = false;
   let entries = 0;
-  for (const p of samples) {
-    const r = Math.hypot(p.x - to.x, p.y - to.y);
+  samples.forEach((p, i) => {
+    const r = strip ? Math.abs(xs[i]! - axis.length) : axis.between(p, to);
     if (!inside && r <= width / 2) { inside = true; entries++; } else if (inside && r > width / 2 + h) inside = false;
-  }
+  });
   // Axis crossings: the sign of y must pass from beyond +h to beyond −h or back.
   let side = 0;
   let tac = 0;

@@ -1,11 +1,14 @@
-import { TrialTableError } from "../trials/trialTableError";
 import { nominalIndexOfDifficulty } from "../task/nominalIndexOfDifficulty";
+import { TrialTableError } from "../trials/trialTableError";
 import { EFFECTIVE_WIDTH_FACTOR } from "./effectiveWidth";
-import type { SequenceSummary } from "./result";
-import { PATH_KEYS, type SequenceState } from "./sequenceState";
+import { FLAG_TIMED_OUT, type MovementStore } from "./movementStore";
+import { PATH_KEYS, type PathAccuracy } from "./pathAccuracy";
+import type { AnalysisResult, SequenceSummary } from "./result";
+import { movementKey, type SequenceInfo } from "./sequenceInfo";
 import { widthFromErrorRate } from "./widthFromErrorRate";
 
 const collator = new Intl.Collator("en", { numeric: true });
+export { collator as codeCollator };
 
 /** Orders sequences by participant, condition, block, sequence (natural order of codes). */
 export function compareSequences(
@@ -15,66 +18,139 @@ export function compareSequences(
   return collator.compare(a.participant, b.participant) || collator.compare(a.condition, b.condition) || a.block - b.block || a.sequence - b.sequence;
 }
 
-export { collator as codeCollator };
+export interface SequenceSummaries {
+  sequences: SequenceSummary[];
+  /** Sequences left out of every summary, with the reason (the one rule: see buildResult). */
+  dropped: AnalysisResult["sequencesDropped"];
+  pathMovements: NonNullable<AnalysisResult["pathMovements"]>;
+}
 
 /**
- * Per-sequence measures from running totals (ISO 9241-411:2012; Soukoreff & MacKenzie 2004):
+ * Per-sequence measures over the kept movements (ISO 9241-411:2012; Soukoreff & MacKenzie 2004):
  * Ae = mean(a + dx), SDx = sample SD of dx, We = 4.133·SDx, IDe = log2(Ae/We + 1), MT = mean time,
- * TP = IDe/MT. In "errorRate" mode (legacy tables) Ae = A and We comes from the error rate
- * (MacKenzie 1992), SDx is NaN.
+ * TP = IDe/MT; the error rate counts misses and kept time-outs. In "errorRate" mode (legacy tables)
+ * Ae = A and We comes from the error rate (MacKenzie 1992), SDx is NaN. A sequence with fewer than
+ * 2 movements kept, or whose IDe, MT or TP is not finite (We = 0: every kept end point at the same
+ * distance along the axis; MT = 0), is left out with its reason. With `pathMeasures` (by
+ * movementKey) the kept movements' path accuracy is averaged per sequence.
  *
- * Cost: O(s log s) for s sequences.
+ * Cost: O(movements + s log s) for s sequences.
  * @throws TrialTableError when a sequence has fewer than 2 movements in the table.
  */
 export function summarizeSequences(
-  states: Iterable<SequenceState>,
+  store: MovementStore,
+  infos: readonly SequenceInfo[],
+  keep: Uint8Array,
   widthMethod: "effective" | "errorRate",
   file: string,
-): { sequences: SequenceSummary[]; dropped: SequenceState[] } {
-  const sorted = [...states].sort(compareSequences);
-  const sequences: SequenceSummary[] = [];
-  const dropped: SequenceState[] = [];
-  for (const s of sorted) {
-    if (s.rows < 2) {
-      throw new TrialTableError(
-        { file, line: s.firstLine, column: "sequence" },
-        `sequence ${s.sequence} of ${s.participant} in ${s.condition}, block ${s.block}, has ${s.rows} movement; at least 2 are needed`,
-      );
-    }
-    if (s.kept < 2) {
-      dropped.push(s);
+  pathMeasures?: ReadonlyMap<string, PathAccuracy>,
+): SequenceSummaries {
+  const s = infos.length;
+  const kept = new Float64Array(s);
+  const errors = new Float64Array(s);
+  const timedOut = new Float64Array(s);
+  const sumDistance = new Float64Array(s);
+  const sumTime = new Float64Array(s);
+  const sumDx = new Float64Array(s);
+  const excluded = new Float64Array(s);
+  const { seq, dx, distance, timeMs, hit, flags } = store;
+  for (let i = 0; i < store.length; i++) {
+    const q = seq[i]!;
+    if (keep[i] === 0) {
+      excluded[q]!++;
       continue;
     }
-    const errorRate = s.misses / s.kept;
-    const ae = s.sumDistance / s.kept;
-    const sdx = widthMethod === "effective" ? Math.sqrt(s.dxM2 / (s.kept - 1)) : Number.NaN;
-    const we = widthMethod === "effective" ? EFFECTIVE_WIDTH_FACTOR * sdx : widthFromErrorRate(s.width, Math.min(errorRate, 0.999999));
+    kept[q]!++;
+    const out = (flags[i]! & FLAG_TIMED_OUT) !== 0;
+    if (out) timedOut[q]!++;
+    if (out || hit[i] === 0) errors[q]!++;
+    sumDistance[q]! += distance[i]!;
+    sumTime[q]! += timeMs[i]!;
+    sumDx[q]! += dx[i]!;
+  }
+  const ssDx = new Float64Array(s);
+  for (let i = 0; i < store.length; i++) {
+    if (keep[i] === 0) continue;
+    const q = seq[i]!;
+    const d = dx[i]! - sumDx[q]! / kept[q]!;
+    ssDx[q]! += d * d;
+  }
+  const paths = pathMeasures ? aggregatePaths(store, infos, keep, pathMeasures) : undefined;
+
+  const order = [...infos.keys()].sort((a, b) => compareSequences(infos[a]!, infos[b]!));
+  const sequences: SequenceSummary[] = [];
+  const dropped: SequenceSummaries["dropped"] = [];
+  for (const q of order) {
+    const info = infos[q]!;
+    if (info.rows < 2) {
+      throw new TrialTableError(
+        { file, line: info.firstLine, column: "sequence" },
+        `sequence ${info.sequence} of ${info.participant} in ${info.condition}, block ${info.block}, has ${info.rows} movement; at least 2 are needed`,
+      );
+    }
+    const n = kept[q]!;
+    const ident = { participant: info.participant, condition: info.condition, block: info.block, sequence: info.sequence, kept: n };
+    if (n < 2) {
+      dropped.push({ ...ident, reason: `${n} movement${n === 1 ? "" : "s"} kept after exclusion; at least 2 are needed` });
+      continue;
+    }
+    const errorRate = errors[q]! / n;
+    const ae = widthMethod === "effective" ? sumDistance[q]! / n : info.amplitude;
+    const sdx = widthMethod === "effective" ? Math.sqrt(ssDx[q]! / (n - 1)) : Number.NaN;
+    const we = widthMethod === "effective" ? EFFECTIVE_WIDTH_FACTOR * sdx : widthFromErrorRate(info.width, Math.min(errorRate, 0.999999));
     const ide = Math.log2(ae / we + 1);
-    const mt = s.sumTimeMs / s.kept;
+    const mt = sumTime[q]! / n;
+    const tp = ide / (mt / 1000);
+    if (!Number.isFinite(ide) || !Number.isFinite(tp) || !(mt > 0)) {
+      const reason = !(we > 0)
+        ? "every kept end point lies at the same distance along the task axis (SDx = 0): We = 0 and IDe is infinite"
+        : !(mt > 0)
+          ? "the mean movement time is 0 ms: throughput is infinite"
+          : "IDe or TP is not a finite number";
+      dropped.push({ ...ident, reason });
+      continue;
+    }
     const summary: SequenceSummary = {
-      participant: s.participant,
-      condition: s.condition,
-      block: s.block,
-      sequence: s.sequence,
-      amplitude: s.amplitude,
-      width: s.width,
-      n: s.kept,
+      participant: info.participant,
+      condition: info.condition,
+      block: info.block,
+      sequence: info.sequence,
+      amplitude: info.amplitude,
+      width: info.width,
+      n,
       errorRate,
       ae,
       sdx,
       we,
       ide,
       mt,
-      tp: mt > 0 ? ide / (mt / 1000) : Number.NaN,
-      id: nominalIndexOfDifficulty(s.amplitude, s.width),
-      excluded: s.excluded,
+      tp,
+      id: nominalIndexOfDifficulty(info.amplitude, info.width),
+      excluded: excluded[q]!,
+      timedOut: timedOut[q]!,
     };
-    if (s.pathCount > 0) {
-      const path = { tre: 0, tac: 0, mdc: 0, odc: 0, mv: 0, me: 0, mo: 0, movements: s.pathCount };
-      for (const k of PATH_KEYS) path[k] = s.pathSums[k] / s.pathCount;
-      summary.path = path;
-    }
+    const path = paths?.perSequence[q];
+    if (path) summary.path = path;
     sequences.push(summary);
   }
-  return { sequences, dropped };
+  return { sequences, dropped, pathMovements: paths?.movements ?? [] };
+}
+
+/** Path measures of the kept movements that have them: per movement, and their mean per sequence. */
+function aggregatePaths(store: MovementStore, infos: readonly SequenceInfo[], keep: Uint8Array, measures: ReadonlyMap<string, PathAccuracy>) {
+  const perSequence: (SequenceSummary["path"] | undefined)[] = new Array(infos.length);
+  const movements: SequenceSummaries["pathMovements"] = [];
+  for (let i = 0; i < store.length; i++) {
+    if (keep[i] === 0) continue;
+    const info = infos[store.seq[i]!]!;
+    const trial = store.trial[i]!;
+    const m = measures.get(movementKey(info.participant, info.condition, info.block, info.sequence, trial));
+    if (m === undefined) continue;
+    movements.push({ participant: info.participant, condition: info.condition, block: info.block, sequence: info.sequence, trial, ...m });
+    const sum = (perSequence[store.seq[i]!] ??= { tre: 0, tac: 0, mdc: 0, odc: 0, mv: 0, me: 0, mo: 0, movements: 0 });
+    for (const k of PATH_KEYS) sum[k] += m[k];
+    sum.movements++;
+  }
+  for (const sum of perSequence) if (sum) for (const k of PATH_KEYS) sum[k] /= sum.movements;
+  return { perSequence, movements };
 }

@@ -2,6 +2,7 @@ import { assertCanViewStudy, type SessionUser } from "@/lib/auth/guards";
 import type { Queryable } from "@/lib/db";
 import type { Study, TeamRole } from "@/lib/data/studies";
 import { forbidden } from "@/lib/errors";
+import { z } from "zod";
 import { studyDesignSchema, type StudyDesign } from "@/lib/study/design";
 import type { ParticipantStatus, ResultsParticipant, TrialRecord } from "@/lib/results";
 
@@ -21,10 +22,15 @@ export async function fetchStudyDesign(q: Queryable, studyId: number): Promise<S
   return studyDesignSchema.parse(parseJson(row.design));
 }
 
-/** The study's participants (code, status, counterbalancing row), in the order they were created. */
+const betweenLevelsSchema = z.record(z.string(), z.string()).nullable();
+
+/** The study's participants (code, status, counterbalancing row, between-factor levels), in the order they were created. */
 export async function fetchResultsParticipants(q: Queryable, studyId: number): Promise<ResultsParticipant[]> {
-  const rows = await q("participants").where({ study_id: studyId }).orderBy("id").select<{ id: number; code: string; status: ParticipantStatus; cb_row: number | null }[]>("id", "code", "status", "cb_row");
-  return rows.map((r) => ({ id: r.id, code: r.code, status: r.status, cbRow: r.cb_row }));
+  const rows = await q("participants")
+    .where({ study_id: studyId })
+    .orderBy("id")
+    .select<{ id: number; code: string; status: ParticipantStatus; cb_row: number | null; between_levels: unknown }[]>("id", "code", "status", "cb_row", "between_levels");
+  return rows.map((r) => ({ id: r.id, code: r.code, status: r.status, cbRow: r.cb_row, betweenLevels: betweenLevelsSchema.parse(parseJson(r.between_levels)) ?? {} }));
 }
 
 /** Every non-practice movement of the study, grouped by participant and sequence. */
@@ -73,8 +79,10 @@ export async function fetchStreamBytes(q: Queryable, streamId: number): Promise<
 
 /** One participant of the study, or undefined. */
 export async function fetchStudyParticipant(q: Queryable, studyId: number, participantId: number): Promise<ResultsParticipant | undefined> {
-  const r = await q("participants").where({ study_id: studyId, id: participantId }).first<{ id: number; code: string; status: ParticipantStatus; cb_row: number | null } | undefined>("id", "code", "status", "cb_row");
-  return r ? { id: r.id, code: r.code, status: r.status, cbRow: r.cb_row } : undefined;
+  const r = await q("participants")
+    .where({ study_id: studyId, id: participantId })
+    .first<{ id: number; code: string; status: ParticipantStatus; cb_row: number | null; between_levels: unknown } | undefined>("id", "code", "status", "cb_row", "between_levels");
+  return r ? { id: r.id, code: r.code, status: r.status, cbRow: r.cb_row, betweenLevels: betweenLevelsSchema.parse(parseJson(r.between_levels)) ?? {} } : undefined;
 }
 
 /** The latest rest-calibration bias of a participant (deg/s per axis), as the session stored it; {} when none. */

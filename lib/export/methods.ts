@@ -1,3 +1,4 @@
+import type { ExclusionRule } from "../analysis/options";
 import type { StudyDesign } from "../study/design";
 
 /** What the methods paragraph needs beyond the design. */
@@ -14,7 +15,7 @@ export interface MethodsFacts {
   excluded: number;
   sequencesDropped: number;
   start: "actual" | "nominal";
-  exclude: "misfire" | "none";
+  exclude: ExclusionRule;
   unit: string;
 }
 

@@ -1,7 +1,7 @@
 import type { AnalysisResult, SequenceSummary } from "../analysis/result";
 
 type Row = Record<string, string | number | null>;
-const num = (x: number): number | null => (Number.isFinite(x) ? x : null);
+const num = (x: number | null | undefined): number | null => (x !== null && x !== undefined && Number.isFinite(x) ? x : null);
 
 /** sequences.csv rows from an analysis's sequences, one at a time (sequenceRows); keys are sequencesTableSpec's columns. Cost: O(sequences). @throws never. */
 export function* sequenceRows(sequences: readonly SequenceSummary[]): Generator<Row> {

@@ -171,7 +171,7 @@ export async function writeArchive(
         if (chunk) yield chunk;
       }
       await add("trials.csv", Readable.from(trialChunks()));
-      return buildResult(acc.states.values(), analysisOptions, "effective");
+      return buildResult(acc, analysisOptions, factorNames);
     };
     const seqSpec = sequencesTableSpec(unit);
     const cellSpec = cellsTableSpec(unit, factorNames);

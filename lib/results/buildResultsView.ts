@@ -1,10 +1,15 @@
-import { analyzeTrials } from "../analysis/analyzeTrials";
+import { buildResultWithKeep } from "../analysis/buildResult";
+import { analysisOptionsSchema, type ExclusionRule } from "../analysis/options";
+import type { PathAccuracy } from "../analysis/pathAccuracy";
 import type { AnalysisResult } from "../analysis/result";
+import { TrialAccumulator } from "../analysis/trialAccumulator";
 import { conditionsOf, type StudyDesign } from "../study/design";
+import type { FlagColumn } from "../trials/columns";
 import type { TrialRow } from "../trials/trialRow";
-import { analysisUnitOf } from "./analysisUnit";
+import { TrialTableError } from "../trials/trialTableError";
+import { analysisUnitOf, geometryOf } from "./analysisUnit";
 import { awMeans, type AwMean } from "./awMeans";
-import { endpointScatter, type EndpointCloud, type ExclusionCounts } from "./endpointScatter";
+import { endpointScatter, type EndpointCloud, type MisfireReasons } from "./endpointScatter";
 import { learningCurve, type LearningPoint } from "./learningCurve";
 import { progressCounts, type ParticipantStatus, type ProgressCounts } from "./progressCounts";
 import { trialRowFromRecord, type TrialRecord } from "./trialRecord";
@@ -14,12 +19,23 @@ export interface ResultsParticipant {
   code: string;
   status: ParticipantStatus;
   cbRow: number | null;
+  /** Levels of the study's between-subject factors. */
+  betweenLevels: Record<string, string>;
+}
+
+/** The exclusion choices a researcher makes on the results page. */
+export interface ResultsOptions {
+  exclude: ExclusionRule;
+  dropFlagged: FlagColumn[];
 }
 
 /** What the results page shows (GET /api/studies/[id]/results). */
 export interface ResultsView {
   unit: "px" | "mm" | "deg";
+  geometry: "plane" | "sphere";
+  options: ResultsOptions;
   conditions: { label: string; factors: Record<string, string> }[];
+  betweenFactors: { name: string; levels: string[] }[];
   progress: ProgressCounts;
   plannedParticipants: number;
   participants: (ResultsParticipant & { movements: number })[];
@@ -29,7 +45,7 @@ export interface ResultsView {
   awMeans: AwMean[];
   learningCurve: LearningPoint[];
   endpoints: EndpointCloud[];
-  exclusions: ExclusionCounts & {
+  exclusions: MisfireReasons & {
     rule: string;
     withdrawn: string[];
     sequencesDropped: AnalysisResult["sequencesDropped"];
@@ -37,47 +53,77 @@ export interface ResultsView {
   };
 }
 
+const RULE_TEXT: Record<ExclusionRule, string> = {
+  misfire: "misfire: distance along the task axis < A/2, or the selection more than 2W from the target centre (common practice); misses are kept",
+  mt3sd: "MT outlier: a movement time further than 3 SD from the mean of the participant × condition (common practice); misses are kept",
+  "misfire+mt3sd": "misfires first (distance along the axis < A/2, or more than 2W from the target centre), then MT outliers beyond the participant × condition's mean ± 3 SD (common practice); misses are kept",
+  none: "none: every movement is kept",
+};
+
 /**
  * Everything the results page plots (buildResultsView), from the stored movements (practice
  * left out) of the participants who have not withdrawn: the analysis of lib/analysis with the
- * study's factors as f_ columns, the A×W means, the learning curve, end points on the task
- * axis, and the exclusions with their reasons.
+ * study's factors as f_ columns, each participant's between-subject levels as b_ columns, view
+ * directions on the sphere in view mode, the chosen exclusion rule and flags, and path accuracy
+ * when `pathMeasures` (by movementKey) are given; the A×W means, the learning curve, end points on
+ * the task axis (the movements the analysis kept), and the exclusions with their reasons.
  * Cost: O(movements) plus the statistics.
  * @throws never: analysis errors come back in `analysisError`.
  * @example buildResultsView(design, participants, records).analysis?.conditions.length // 4
  */
-export function buildResultsView(design: StudyDesign, participants: readonly ResultsParticipant[], records: readonly TrialRecord[]): ResultsView {
+export function buildResultsView(
+  design: StudyDesign,
+  participants: readonly ResultsParticipant[],
+  records: readonly TrialRecord[],
+  options: ResultsOptions = { exclude: "misfire", dropFlagged: [] },
+  pathMeasures?: ReadonlyMap<string, PathAccuracy>,
+): ResultsView {
   const unit = analysisUnitOf(design.task.unit);
+  const geometry = geometryOf(design.task.displayMode);
   const conditions = conditionsOf(design);
   const levelsOf = new Map(conditions.map((c) => [c.label, c.factorLevels]));
-  const codeOf = new Map(participants.map((p) => [p.id, p.code]));
+  const byId = new Map(participants.map((p) => [p.id, p]));
   const withdrawn = new Set(participants.filter((p) => p.status === "withdrawn").map((p) => p.id));
+  const betweenNames = design.betweenFactors.map((f) => f.name);
   const movementsOf = new Map<number, number>();
   const rows: TrialRow[] = [];
+  let analysisError: string | null = null;
   for (const r of records) {
     if (withdrawn.has(r.participant_id)) continue;
-    const code = codeOf.get(r.participant_id);
-    if (code === undefined) continue;
+    const p = byId.get(r.participant_id);
+    if (p === undefined) continue;
     movementsOf.set(r.participant_id, (movementsOf.get(r.participant_id) ?? 0) + 1);
-    rows.push(trialRowFromRecord(r, code, levelsOf.get(r.condition) ?? {}));
+    const row = trialRowFromRecord(r, p.code, levelsOf.get(r.condition) ?? {});
+    if (betweenNames.length > 0) {
+      const lacking = betweenNames.find((b) => !p.betweenLevels[b]);
+      if (lacking !== undefined) analysisError ??= `participant ${p.code} is in no group of the between factor ${lacking}`;
+      row.groups = p.betweenLevels;
+    }
+    rows.push(row);
   }
   let analysis: AnalysisResult | null = null;
-  let analysisError: string | null = null;
   let clouds: EndpointCloud[] = [];
-  let exclusions: ExclusionCounts = { short: 0, far: 0, removed: 0 };
-  if (rows.length > 0) {
+  let exclusions: MisfireReasons = { short: 0, far: 0, removed: 0 };
+  if (rows.length > 0 && analysisError === null) {
     try {
-      analysis = analyzeTrials(rows, { start: "actual", exclude: "misfire", unit, anova: ["tp", "mt", "errorRate"] });
-      ({ clouds, exclusions } = endpointScatter(rows, analysis.sequences));
+      const opts = analysisOptionsSchema.parse({ start: "actual", exclude: options.exclude, dropFlagged: options.dropFlagged, unit, geometry, anova: ["tp", "mt", "errorRate"], file: "trials" });
+      const acc = new TrialAccumulator(opts);
+      for (const row of rows) acc.add(row);
+      const built = buildResultWithKeep(acc, opts, [...design.factors.map((f) => f.name), ...betweenNames], pathMeasures);
+      analysis = built.result;
+      ({ clouds, exclusions } = endpointScatter(rows, analysis.sequences, { keep: built.keep, geometry }));
     } catch (e) {
-      analysisError = (e as Error).message;
+      analysisError = e instanceof TrialTableError ? e.detail : (e as Error).message;
       analysis = null;
     }
   }
   const { pathMovements: _paths, ...shown } = analysis ?? { pathMovements: undefined };
   return {
     unit,
+    geometry,
+    options,
     conditions: conditions.map((c) => ({ label: c.label, factors: c.factorLevels })),
+    betweenFactors: design.betweenFactors.map((f) => ({ name: f.name, levels: [...f.levels] })),
     progress: progressCounts(participants),
     plannedParticipants: design.plannedParticipants,
     participants: participants.map((p) => ({ ...p, movements: movementsOf.get(p.id) ?? 0 })),
@@ -88,7 +134,7 @@ export function buildResultsView(design: StudyDesign, participants: readonly Res
     endpoints: clouds,
     exclusions: {
       ...exclusions,
-      rule: "misfire: distance along the task axis < A/2, or the selection more than 2W from the target centre (common practice); misses are kept",
+      rule: RULE_TEXT[options.exclude] + (options.dropFlagged.length ? `; flagged movements removed: ${options.dropFlagged.join(", ")}` : "; time-outs kept and counted as errors"),
       withdrawn: participants.filter((p) => p.status === "withdrawn").map((p) => p.code),
       sequencesDropped: analysis?.sequencesDropped ?? [],
       missing: analysis?.missing ?? null,

@@ -8,47 +8,57 @@ export interface EndpointCloud {
   condition: string;
   points: { x: number; y: number; hit: boolean }[];
   /** Mean We/W over the condition's sequences: the effective-width band is ±half of it. */
-  weOverW: number;
+  weOverW: number | null;
   /** Kept movements in the condition (points may be a thinned sample of them). */
   movements: number;
 }
 
-/** What the exclusion rule removed, by reason (one movement may meet both). */
-export interface ExclusionCounts {
+/** Misfires among the removed movements, by reason (one movement may meet both). */
+export interface MisfireReasons {
   /** Distance along the task axis below A/2. */
   short: number;
   /** Selection more than 2W from the target centre. */
   far: number;
+  /** Movements removed by any rule (misfire, MT outlier, flag). */
   removed: number;
 }
 
 /**
- * End points normalised to the task axis (endpointScatter), and the misfire counts by reason.
+ * End points normalised to the task axis (endpointScatter), and the misfires among the removed
+ * movements by reason.
  *
  * Purpose: the end-point plot of each condition. For each movement S = the previous selection
- * point, T = the target centre, P = the selection: x = (P − T)·u/W along u = (T − S)/|T − S|
- * (+ overshoot), y = the perpendicular part /W (science.md §1, ISO 9241-411). Misfires (the
- * common-practice rule of isMisfire) are counted, not plotted. At most `maxPoints` per condition,
- * thinned evenly.
+ * point, T = the target centre, P = the selection: x = dx/W along the axis (+ overshoot), y = the
+ * perpendicular part /W (science.md §1, ISO 9241-411; on the view sphere the great-circle angles,
+ * see taskAxis). `keep` (one byte per row, in the same order) says which movements the analysis
+ * kept; without it the common-practice misfire rule decides. Removed movements are counted, not
+ * plotted. At most `maxPoints` per condition, thinned evenly.
  * Cost: O(movements).
  * @throws Error from projectMovement when a movement starts on its target centre.
  * @example endpointScatter(rows, sequences).clouds[0].weOverW // 1.04
  */
-export function endpointScatter(rows: Iterable<TrialRow>, sequences: readonly SequenceSummary[], maxPoints = 1500): { clouds: EndpointCloud[]; exclusions: ExclusionCounts } {
+export function endpointScatter(
+  rows: Iterable<TrialRow>,
+  sequences: readonly SequenceSummary[],
+  options: { keep?: Uint8Array; geometry?: "plane" | "sphere"; maxPoints?: number } = {},
+): { clouds: EndpointCloud[]; exclusions: MisfireReasons } {
+  const maxPoints = options.maxPoints ?? 1500;
   const all = new Map<string, { x: number; y: number; hit: boolean }[]>();
-  const exclusions: ExclusionCounts = { short: 0, far: 0, removed: 0 };
+  const exclusions: MisfireReasons = { short: 0, far: 0, removed: 0 };
+  let i = -1;
   for (const r of rows) {
-    const m = projectMovement(r.startX, r.startY, r.toX, r.toY, r.endX, r.endY);
-    if (isMisfire(m.distance, m.endError, r.amplitude, r.width)) {
+    i++;
+    const m = projectMovement(r.startX, r.startY, r.toX, r.toY, r.endX, r.endY, options.geometry ?? "plane");
+    const misfire = isMisfire(m.distance, m.endError, r.amplitude, r.width);
+    const removed = options.keep ? options.keep[i] === 0 : misfire;
+    if (removed) {
       exclusions.removed++;
       if (m.distance < r.amplitude / 2) exclusions.short++;
       if (m.endError > 2 * r.width) exclusions.far++;
       continue;
     }
-    const ux = (r.toX - r.startX) / m.a, uy = (r.toY - r.startY) / m.a;
-    const ex = r.endX - r.toX, ey = r.endY - r.toY;
     const list = all.get(r.condition) ?? [];
-    list.push({ x: m.dx / r.width, y: (ux * ey - uy * ex) / r.width, hit: r.hit });
+    list.push({ x: m.dx / r.width, y: m.across / r.width, hit: r.hit && !r.timedOut });
     all.set(r.condition, list);
   }
   const ratio = new Map<string, { sum: number; n: number }>();
@@ -62,7 +72,7 @@ export function endpointScatter(rows: Iterable<TrialRow>, sequences: readonly Se
   const clouds = [...all.entries()].map(([condition, points]) => {
     const step = Math.max(1, Math.ceil(points.length / maxPoints));
     const r = ratio.get(condition);
-    return { condition, points: points.filter((_, i) => i % step === 0), weOverW: r ? r.sum / r.n : NaN, movements: points.length };
+    return { condition, points: points.filter((_, k) => k % step === 0), weOverW: r ? r.sum / r.n : null, movements: points.length };
   });
   return { clouds, exclusions };
 }

@@ -1,5 +1,5 @@
 import { TrialAccumulator } from "../analysis/trialAccumulator";
-import { summarizeSequences } from "../analysis/summarizeSequences";
+import { sequenceSummaries } from "../analysis/buildResult";
 import { analysisOptionsSchema } from "../analysis/options";
 import type { SequenceSummary } from "../analysis/result";
 import type { TransferConfig } from "../motion/config";
@@ -70,7 +70,7 @@ export function participantView(
     list.push(r);
     bySequence.set(key, list);
   }
-  const { sequences } = summarizeSequences([...acc.states.values()], "effective", "trials");
+  const { sequences } = sequenceSummaries(acc, opts);
   const summaryOf = new Map(sequences.map((s) => [JSON.stringify([s.condition, s.block, s.sequence]), s]));
   const limits = { minSampleRateHz: design.minSampleRateHz, maxGapMs: 100, maxErrorRate: MAX_ERROR_RATE };
   const configOf = (label: string): TransferConfig | null => {

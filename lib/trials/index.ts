@@ -1,7 +1,6 @@
 export {
   BETWEEN_PREFIX,
   COORDINATE_COLUMNS,
-  FLAG_COLUMNS,
   FACTOR_PREFIX,
   FLAG_COLUMNS,
   type FlagColumn,

@@ -160,19 +160,19 @@ describe("anonymised archive of the finished demo study", () => {
     cli.conditions.forEach((c, i) => {
       const p = page.conditions[i]!;
       expect(c.n).toBe(p.n);
-      expect(c.tp.mean).toBeCloseTo(p.tp.mean, 10);
-      expect(c.tp.ci95[0]).toBeCloseTo(p.tp.ci95[0], 10);
-      expect(c.tp.ci95[1]).toBeCloseTo(p.tp.ci95[1], 10);
-      expect(c.mt.mean).toBeCloseTo(p.mt.mean, 8);
-      expect(c.errorRate.mean).toBeCloseTo(p.errorRate.mean, 12);
+      expect(c.tp.mean).toBeCloseTo(p.tp.mean!, 10);
+      expect(c.tp.ci95[0]).toBeCloseTo(p.tp.ci95[0]!, 10);
+      expect(c.tp.ci95[1]).toBeCloseTo(p.tp.ci95[1]!, 10);
+      expect(c.mt.mean).toBeCloseTo(p.mt.mean!, 8);
+      expect(c.errorRate.mean).toBeCloseTo(p.errorRate.mean!, 12);
     });
-    cli.regression.forEach((r, i) => expect(r.slope).toBeCloseTo(page.regression[i]!.slope, 8));
+    cli.regression.forEach((r, i) => expect(r.slope).toBeCloseTo(page.regression[i]!.slope!, 8));
     expect(cli.anova.map((a) => a.effect)).toEqual(page.anova.map((a) => a.effect));
     cli.anova.forEach((a, i) => {
-      expect(a.F).toBeCloseTo(page.anova[i]!.F, 8);
+      expect(a.F).toBeCloseTo(page.anova[i]!.F!, 8);
       expect(a.df2).toBe(page.anova[i]!.df2);
     });
-    cli.posthoc.forEach((h, i) => expect(h.t).toBeCloseTo(page.posthoc[i]!.t, 8));
+    cli.posthoc.forEach((h, i) => expect(h.t).toBeCloseTo(page.posthoc[i]!.t!, 8));
     // cells: the same values under pseudonyms instead of codes
     const codeOf = new Map((await fetchResultsParticipants(db, studyId)).map((p) => [p.id, p.code]));
     const byCode = new Map([...pseudonyms].map(([id, ps]) => [ps, codeOf.get(id)!]));

@@ -105,7 +105,7 @@ describe("data package", () => {
 });
 
 const seq = (p: string, c: string, block: number, tp: number, we = 40, width = 40): SequenceSummary =>
-  ({ participant: p, condition: c, block, sequence: 1, amplitude: 400, width, n: 12, errorRate: 0, ae: 400, sdx: we / 4.133, we, ide: 3, mt: 1000, tp, id: 3.4, excluded: 0 });
+  ({ participant: p, condition: c, block, sequence: 1, amplitude: 400, width, n: 12, errorRate: 0, ae: 400, sdx: we / 4.133, we, ide: 3, mt: 1000, tp, id: 3.4, excluded: 0, timedOut: 0 });
 
 describe("results pieces", () => {
   it("learning curve is a mean of participant means (not pooled over sequences)", () => {

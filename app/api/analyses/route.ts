@@ -2,7 +2,7 @@ import { createReadStream } from "node:fs";
 import { mkdir, rename, rm } from "node:fs/promises";
 import { join, resolve } from "node:path";
 import { z } from "zod";
-import { analyzeTrialStream } from "@/lib/analysis";
+import { analyzeTrialStream, EXCLUSION_RULES } from "@/lib/analysis";
 import { saveMultipartFile } from "@/lib/api/multipart";
 import { errorResponse, route } from "@/lib/api/respond";
 import { requireRole } from "@/lib/auth/guards";
@@ -11,16 +11,27 @@ import { appendAudit } from "@/lib/data/audit";
 import { fetchImportsOf, insertImport } from "@/lib/data/imports";
 import { env } from "@/lib/env";
 import { getCurrentUser } from "@/lib/session";
-import { TrialTableError } from "@/lib/trials";
+import { FLAG_COLUMNS, TrialTableError } from "@/lib/trials";
 
 /** Trial tables up to this size are accepted (413 beyond). */
 export const ANALYSIS_UPLOAD_LIMIT = 100 * 1024 * 1024;
 
-const optionsSchema = z.object({
-  start: z.enum(["actual", "nominal"]).default("actual"),
-  exclude: z.enum(["misfire", "none"]).default("misfire"),
-  unit: z.enum(["px", "mm", "deg"]).default("px"),
-});
+/** The form's fields; flags to drop come as drop_timed_out=1 etc. (one field each). */
+const optionsSchema = z
+  .object({
+    start: z.enum(["actual", "nominal"]).default("actual"),
+    exclude: z.enum(EXCLUSION_RULES).default("misfire"),
+    unit: z.enum(["px", "mm", "deg"]).default("px"),
+    geometry: z.enum(["plane", "sphere"]).default("plane"),
+    drop_timed_out: z.literal("1").optional(),
+    drop_recentered: z.literal("1").optional(),
+    drop_clutched: z.literal("1").optional(),
+  })
+  .refine((o) => o.geometry === "plane" || o.unit === "deg", { path: ["geometry"], message: "view directions on the sphere need the unit deg" })
+  .transform(({ drop_timed_out, drop_recentered, drop_clutched, ...o }) => ({
+    ...o,
+    dropFlagged: FLAG_COLUMNS.filter((_, i) => [drop_timed_out, drop_recentered, drop_clutched][i] === "1"),
+  }));
 
 export const GET = route(async () => {
   const user = requireRole(await getCurrentUser(), "researcher");

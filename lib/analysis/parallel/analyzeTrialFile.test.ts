@@ -12,7 +12,7 @@ describe("analyzeTrialFile in worker threads", () => {
     const two = await analyzeTrialFile(FIX + "good.csv", { file: "good.csv", threads: 3, parallelFrom: 0 });
     expect(two.sequences).toHaveLength(one.sequences.length);
     two.sequences.forEach((s, i) => expect(s.tp).toBeCloseTo(one.sequences[i]!.tp, 9));
-    expect(two.anova[0]!.F).toBeCloseTo(one.anova[0]!.F, 9);
+    expect(two.anova[0]!.F).toBeCloseTo(one.anova[0]!.F!, 9);
   }, 30_000);
   test("reports absolute lines from a later chunk", async () => {
     const err = await analyzeTrialFile(FIX + "short-sequence.csv", { file: "s.csv", threads: 3, parallelFrom: 0 }).catch((e: unknown) => e);

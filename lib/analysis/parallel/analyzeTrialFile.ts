@@ -2,13 +2,14 @@ import { createReadStream } from "node:fs";
 import { open, stat } from "node:fs/promises";
 import { Worker } from "node:worker_threads";
 import { parse } from "csv-parse/sync";
-import type { Point } from "../../task/point";
 import { TrialTableError } from "../../trials/trialTableError";
-import { analyzeTrialStream, type StreamAnalysisOptions } from "../analyzeTrialStream";
+import { analyzeTrialStream, factorOrderOf, type StreamAnalysisOptions } from "../analyzeTrialStream";
 import { buildResult } from "../buildResult";
 import { analysisOptionsSchema } from "../options";
+import type { PathAccuracy } from "../pathAccuracy";
 import type { AnalysisResult } from "../result";
-import { mergeSequenceStates, type SequenceState } from "../sequenceState";
+import { TrialAccumulator } from "../trialAccumulator";
+import { fromChunkData } from "./chunkData";
 import type { ChunkJob, ChunkReply } from "./chunkTypes";
 
 export interface FileAnalysisOptions extends StreamAnalysisOptions {
@@ -57,31 +58,31 @@ function runChunk(job: ChunkJob): Promise<ChunkReply> {
 
 /**
  * Analyses a trial-table file, on the calling thread by default. With `threads` > 1, large files are
- * split at line boundaries and read in worker threads; the per-sequence totals are merged exactly
- * (mergeSequenceStates). Files
+ * split at line boundaries and read in worker threads; their sequences and movements are merged in
+ * file order (TrialAccumulator.merge, with the same checks across the boundaries). Files
  * with a quote character anywhere fall back to one thread, since a quoted line break could straddle
  * a split. Needs the TypeScript loader in workers (tsx passes it on); elsewhere use threads: 1.
  *
- * Cost: O(bytes / threads) time; memory O(sequences) per thread.
+ * Cost: O(bytes / threads) time; memory O(sequences + 50 bytes × movements).
  * @throws ZodError on bad options; TrialTableError (rejects) on bad input, with absolute lines.
  */
 export async function analyzeTrialFile(
   path: string,
   options: FileAnalysisOptions = {},
-  paths?: ReadonlyMap<string, readonly Point[]>,
+  pathMeasures?: ReadonlyMap<string, PathAccuracy>,
 ): Promise<AnalysisResult> {
   const { threads: wanted, parallelFrom = 16 * 1024 * 1024, ...streamOptions } = options;
   const threads = Math.max(1, Math.min(wanted ?? 1, 8));
   const file = streamOptions.file ?? path;
   // 1 MB reads instead of the default 64 kB: 16× fewer round trips to the file-system thread pool.
-  const single = () => analyzeTrialStream(createReadStream(path, { highWaterMark: 1 << 20 }), { ...streamOptions, file }, paths);
+  const single = () => analyzeTrialStream(createReadStream(path, { highWaterMark: 1 << 20 }), { ...streamOptions, file }, pathMeasures);
   let size: number;
   try {
     size = (await stat(path)).size;
   } catch (err) {
     throw new TrialTableError({ file, line: 1, column: "(file)" }, `cannot read: ${(err as Error).message}`);
   }
-  if (threads === 1 || size < parallelFrom || streamOptions.legacy === true || paths !== undefined) return single();
+  if (threads === 1 || size < parallelFrom || streamOptions.legacy === true) return single();
 
   const headerEnd = await nextLineStart(path, 0);
   const fh = await open(path, "r");
@@ -110,22 +111,15 @@ export async function analyzeTrialFile(
   }
   if (replies.some((r) => r.sawQuote)) return single();
 
-  const opts = analysisOptionsSchema.parse({ ...streamOptions, file });
-  const merged = new Map<string, SequenceState>();
+  const { legacy: _legacy, parser: _parser, ...rest } = streamOptions;
+  const opts = analysisOptionsSchema.parse({ ...rest, file });
+  const merged = new TrialAccumulator(opts);
   let offset = 0;
   for (const reply of replies) {
     if (!reply.ok) throw new TrialTableError({ file, line: reply.line + offset, column: reply.column }, reply.detail);
-    for (const s of reply.states) {
-      const state = { ...s, firstLine: s.firstLine + offset };
-      const known = merged.get(s.key);
-      if (known && (known.amplitude !== s.amplitude || known.width !== s.width)) {
-        const column = known.amplitude !== s.amplitude ? "amplitude" : "width";
-        throw new TrialTableError({ file, line: state.firstLine, column }, `${column} changes within sequence ${s.sequence}`);
-      }
-      merged.set(s.key, known ? mergeSequenceStates(known, state) : state);
-    }
+    merged.merge(fromChunkData(reply.data, opts, offset));
     // Every chunk but the last ends with a line break, so csv-parse counts one line more than it holds.
     offset += reply.lines - 1;
   }
-  return buildResult(merged.values(), opts, "effective");
+  return buildResult(merged, opts, factorOrderOf(header), pathMeasures);
 }

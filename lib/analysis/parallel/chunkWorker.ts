@@ -1,16 +1,17 @@
-// Worker: analyses one byte range of a trial-table file and posts its sequence totals back.
+// Worker: analyses one byte range of a trial-table file and posts what it read back.
 import { createReadStream } from "node:fs";
 import { parentPort, workerData } from "node:worker_threads";
 import { forEachTrialRow } from "../../trials/forEachTrialRow";
 import { TrialTableError } from "../../trials/trialTableError";
 import { analysisOptionsSchema } from "../options";
 import { TrialAccumulator } from "../trialAccumulator";
+import { toChunkData } from "./chunkData";
 import type { ChunkJob, ChunkReply } from "./chunkTypes";
 
 async function run(job: ChunkJob): Promise<ChunkReply> {
   const opts = analysisOptionsSchema.parse(job.options);
   const acc = new TrialAccumulator(opts);
-  const input = createReadStream(job.path, { start: job.start, end: job.end - 1 });
+  const input = createReadStream(job.path, { start: job.start, end: job.end - 1, highWaterMark: 1 << 20 });
   let sawQuote = false;
   input.on("data", (chunk) => {
     if (!sawQuote && (chunk as Buffer).indexOf(34) !== -1) sawQuote = true;
@@ -20,7 +21,7 @@ async function run(job: ChunkJob): Promise<ChunkReply> {
       ? forEachTrialRow(input, { file: opts.file, legacy: false, header: job.header }, (row) => acc.add(row))
       : forEachTrialRow(input, { file: opts.file, legacy: false }, (row) => acc.add(row));
     const summary = await read;
-    return { ok: true, states: [...acc.states.values()], lines: summary.lines, sawQuote };
+    return { ok: true, data: toChunkData(acc), lines: summary.lines, sawQuote };
   } catch (err) {
     if (err instanceof TrialTableError) return { ok: false, line: err.line, column: err.column, detail: err.detail, sawQuote };
     throw err;
@@ -28,7 +29,10 @@ async function run(job: ChunkJob): Promise<ChunkReply> {
 }
 
 run(workerData as ChunkJob).then(
-  (reply) => parentPort!.postMessage(reply),
+  (reply) => {
+    const c = reply.ok ? reply.data.columns : null;
+    parentPort!.postMessage(reply, c ? Object.values(c).map((a) => a.buffer as ArrayBuffer) : []);
+  },
   (err: unknown) => {
     throw err;
   },

@@ -1,0 +1,30 @@
+import { leastSquaresLine } from "../stats/linearRegression";
+import type { RegressionRow, SequenceSummary } from "./result";
+
+/**
+ * Fitts regression per condition, MT = a + b·x over the condition's A×W means pooled over
+ * participants (interfaces.md "regression"; Soukoreff & MacKenzie 2004 §4), x the effective ID
+ * ("ide") or the nominal one ("id"). Every sequence given is finite (the one rule drops the others
+ * before); a condition with fewer than 2 A×W points or one x gives null with a note.
+ *
+ * Cost: O(s).
+ * @throws never.
+ * @example fittsRegression(result.sequences, ["motion-4"], "ide")[0] // {condition: "motion-4", intercept: 244.8…, slope: 124.7…, r2: 1, points: 2, note: null}
+ */
+export function fittsRegression(sequences: readonly SequenceSummary[], conditions: readonly string[], x: "ide" | "id"): RegressionRow[] {
+  return conditions.map((condition) => {
+    const points = new Map<string, { x: number; mt: number; n: number }>();
+    for (const s of sequences) {
+      if (s.condition !== condition) continue;
+      const key = `${s.amplitude}\u0000${s.width}`;
+      const p = points.get(key) ?? { x: 0, mt: 0, n: 0 };
+      p.x += s[x];
+      p.mt += s.mt;
+      p.n++;
+      points.set(key, p);
+    }
+    const ps = [...points.values()];
+    const line = leastSquaresLine(ps.map((p) => p.x / p.n), ps.map((p) => p.mt / p.n));
+    return { condition, intercept: line.intercept, slope: line.slope, r2: line.r2, points: ps.length, note: line.note };
+  });
+}
