@@ -6,7 +6,7 @@ import type { MotionSample } from "@/lib/motion/sample";
 import { sampleStreamCsv } from "./streamCsv";
 import { sampleRateReport } from "@/lib/motion/calibration/sampleRateReport";
 import type { Point } from "@/lib/task/point";
-import { sequenceLayout } from "@/lib/runner/geometry";
+import { isInsideTarget, sequenceLayout } from "@/lib/runner/geometry";
 import { pixelsPerTaskUnit, type DisplayCalibration } from "@/lib/runner/calibration";
 import { createSequenceRecorder, type RecordedMovement } from "@/lib/runner/sequenceRecorder";
 import { projectDirection } from "@/lib/runner/perspective";
@@ -68,7 +68,8 @@ export function TaskCanvas(props: { setup: TaskSetup; provider: InputProvider | 
     if (!ctx) return;
     const pointerTechnique = setup.config.technique === "mouse" || setup.config.technique === "touch";
     const view = setup.displayMode === "view";
-    const layout = sequenceLayout(setup.type, setup.targetsPerRing, setup.amplitude, setup.width);
+    // view mode: targets, A and W on the view sphere (great-circle angles; science.md §1 "View mode")
+    const layout = sequenceLayout(setup.type, setup.targetsPerRing, setup.amplitude, setup.width, view ? "sphere" : "plane");
     const recorder = createSequenceRecorder(layout, setup.timeLimitMs);
     const engine = pointerTechnique ? null : createMotionEngineFromValid({ ...setup.config, displayMode: setup.displayMode });
     const scale = view ? 1 : pixelsPerTaskUnit(setup.unit, setup.amplitude, setup.calibration);
@@ -128,7 +129,7 @@ export function TaskCanvas(props: { setup: TaskSetup; provider: InputProvider | 
       const t = layout.order[recorder.next];
       if (!t) return false;
       const p = taskPoint();
-      return setup.type === "ring" ? Math.hypot(p.x - t.x, p.y - t.y) <= setup.width / 2 : Math.abs((p.x - t.x) * layout.axis.x + (p.y - t.y) * layout.axis.y) <= setup.width / 2;
+      return isInsideTarget(layout.type, t, layout.axis, p, setup.width, layout.surface);
     };
 
     const checkTimers = (tMs: number): void => {
@@ -211,7 +212,8 @@ export function TaskCanvas(props: { setup: TaskSetup; provider: InputProvider | 
         let cx: number, cy: number, r: number;
         if (view) {
           if (!projectDirection(t.x, t.y, pos.x, pos.y, VERTICAL_FOV_DEG, w, h, tmp)) continue;
-          projectDirection(t.x + setup.width / 2, t.y, pos.x, pos.y, VERTICAL_FOV_DEG, w, h, tmp2);
+          // a pitch offset of W/2 is W/2 on a great circle at any pitch (a yaw offset would shrink by cos(pitch))
+          projectDirection(t.x, t.y + setup.width / 2, pos.x, pos.y, VERTICAL_FOV_DEG, w, h, tmp2);
           cx = tmp.x;
           cy = tmp.y;
           r = Math.max(2, Math.hypot(tmp2.x - tmp.x, tmp2.y - tmp.y));

@@ -3,7 +3,7 @@ export { effectiveIndexOfDifficulty } from "./effectiveIndexOfDifficulty";
 export { throughput } from "./throughput";
 export { widthFromErrorRate } from "./widthFromErrorRate";
 export { projectMovement, type MovementProjection, type StartPoint } from "./projectMovement";
-export { taskAxis, type Geometry, type TaskAxis } from "./taskAxis";
+export { taskAxis, viewAngleBetween, type Geometry, type TaskAxis } from "./taskAxis";
 export { isMisfire } from "./isMisfire";
 export { pathAccuracy, PATH_KEYS, type PathAccuracy, type PathAccuracyOptions } from "./pathAccuracy";
 export { analysisOptionsSchema, EXCLUSION_RULES, type AnalysisOptions, type AnalysisOptionsInput, type ExclusionRule } from "./options";

@@ -35,6 +35,17 @@ function angle(u: readonly number[], v: readonly number[]): number {
 }
 
 /**
+ * Great-circle angle between two view directions given as (yaw, pitch) in degrees
+ * (viewAngleBetween): atan2(|u × v|, u·v) of their unit vectors (spherical geometry).
+ * Cost: O(1).
+ * @throws never.
+ * @example viewAngleBetween({ x: 0, y: 60 }, { x: 20, y: 60 }) // 9.9618…
+ */
+export function viewAngleBetween(a: Point, b: Point): number {
+  return angle(direction(a), direction(b)) / RAD;
+}
+
+/**
  * The task axis from S to T (taskAxis).
  *
  * Plane (ISO 9241-411:2012; MacKenzie 1992): u = (T − S)/|T − S|, along = (P − S)·u,

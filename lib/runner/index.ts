@@ -2,7 +2,7 @@
 export { planSession, planSeedFor, planSequences, type PlannedSequence, type PlanTask } from "./plan";
 export { uploadKey } from "./uploadKey";
 export { STAGES, initialProgress, currentStep, advanceProgress, progressFraction, type Stage, type Progress, type RunnerStep } from "./progress";
-export { sequenceLayout, isInsideTarget, type SequenceLayout } from "./geometry";
+export { sequenceLayout, isInsideTarget, type LayoutSurface, type SequenceLayout } from "./geometry";
 export {
   ID1_CARD_WIDTH_MM, ID1_CARD_HEIGHT_MM, BLIND_SPOT_ANGLE_DEG, pixelsPerMmFromCard, viewingDistanceFromBlindSpot,
   visualDegreesToPixels, pixelsPerTaskUnit, trialUnit, type DisplayCalibration,

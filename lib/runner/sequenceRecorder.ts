@@ -47,7 +47,8 @@ export interface SequenceRecorder {
  * Purpose: turn selections into trial table rows: from/to are the previous and current target
  * centres, start is the previous selection point, end the selection point, time the interval
  * between the two selections' time stamps (clamped to the trial time limit: a selection forced
- * at the limit counts as that long), hit from the target's shape, and the movement's flags:
+ * at the limit counts as that long), hit from the target's shape (on the view sphere for a
+ * layout whose surface is "sphere": great-circle angles, science.md §1), and the movement's flags:
  * `timed_out` when the limit forced the selection, `recentered` / `clutched` when a recenter or
  * an engaged clutch was noted between the two selections (a clutch still held at a selection
  * flags the next movement too, once noted again). Source: interfaces.md "Trial table" (optional
@@ -95,7 +96,7 @@ export function createSequenceRecorder(layout: SequenceLayout, timeLimitMs: numb
           from_x: from.x, from_y: from.y, to_x: target.x, to_y: target.y,
           start_x: lastP.x, start_y: lastP.y, end_x: point.x, end_y: point.y,
           time_ms: Math.min(timeLimitMs, Math.round((tMs - lastT) * 1000) / 1000),
-          hit: isInsideTarget(layout.type, target, layout.axis, point, layout.width) ? 1 : 0,
+          hit: isInsideTarget(layout.type, target, layout.axis, point, layout.width, layout.surface) ? 1 : 0,
           timed_out: cause?.timedOut ? 1 : 0,
           recentered,
           clutched,
