@@ -1,5 +1,6 @@
 import type { AnalysisResult } from "@/lib/analysis";
-import { fmt, fmtP, pct } from "./format";
+import { AnovaTable, BetweenGroupsTable, GroupConditionTable, PosthocTable } from "@/components/results/StatsTables";
+import { fmt, pct } from "./format";
 
 /** The analysis as tables: condition summaries, regressions, ANOVA, post hoc, cells and sequences. */
 export function ResultTables({ result }: { result: AnalysisResult }) {
@@ -7,7 +8,7 @@ export function ResultTables({ result }: { result: AnalysisResult }) {
   return (
     <div className="space-y-6">
       <p className="text-sm text-slate-700">
-        {result.movements} movements; {result.excluded} removed by the {result.exclude === "misfire" ? "misfire rule (distance along the axis < A/2, or |P − T| > 2W)" : "no exclusion rule"};
+        {result.movements} movements; {result.excluded} removed ({result.exclusions.misfire} misfires: distance along the axis &lt; A/2 or |P − T| &gt; 2W; {result.exclusions.mt3sd} movement times beyond the participant × condition&apos;s mean ± 3 SD; {result.exclusions.timed_out + result.exclusions.recentered + result.exclusions.clutched} flagged) under the rule &ldquo;{result.exclude}&rdquo;; {result.timeoutsKept} time-out(s) kept as errors; coordinates read as {result.geometry === "sphere" ? "view directions on the sphere" : "points in a plane"};
         start point: {result.start === "actual" ? "the previous selection point" : "the previous target's centre"}; effective width {result.widthMethod === "effective" ? "We = 4.133 · SDx" : "from the error rate (legacy data, flagged)"}.
         {result.missing.participantsExcluded > 0 && ` ${result.missing.participantsExcluded} participant(s) lacking a condition were left out of the ANOVA.`}
       </p>
@@ -34,26 +35,22 @@ export function ResultTables({ result }: { result: AnalysisResult }) {
         </table>
       </Section>
 
-      <Section title="Repeated-measures ANOVA on throughput">
-        <table>
-          <thead><tr><th>Effect</th><th>df</th><th>F</th><th>p</th><th>ε (GG)</th><th>p (GG)</th><th>partial η²</th></tr></thead>
-          <tbody>
-            {result.anova.map((a) => (
-              <tr key={a.effect}><td>{a.effect}</td><td>{fmt(a.df1, 0)}, {fmt(a.df2, 0)}</td><td>{fmt(a.F)}</td><td>{fmtP(a.p)}</td><td>{fmt(a.epsilonGG, 3)}</td><td>{fmtP(a.pGG)}</td><td>{fmt(a.partialEta2, 3)}</td></tr>
-            ))}
-          </tbody>
-        </table>
+      {result.conditionsByGroup && (
+        <Section title="Conditions by group">
+          <GroupConditionTable analysis={result} />
+        </Section>
+      )}
+
+      <Section title="ANOVA on throughput">
+        <AnovaTable rows={result.anova} caption="Within effects against their own effect × participant error, between effects (b_ columns) against participants within groups; GG and HF (as R reports it) corrected p; Mauchly's test." />
       </Section>
 
-      <Section title="Post hoc paired t-tests (Holm-corrected)">
-        <table>
-          <thead><tr><th>A</th><th>B</th><th>mean diff (bits/s)</th><th>t</th><th>df</th><th>p</th><th>p (Holm)</th><th>d<sub>z</sub></th></tr></thead>
-          <tbody>
-            {result.posthoc.map((p) => (
-              <tr key={`${p.a}|${p.b}`}><td>{p.a}</td><td>{p.b}</td><td>{fmt(p.meanDiff)}</td><td>{fmt(p.t)}</td><td>{p.df}</td><td>{fmtP(p.p)}</td><td>{fmtP(p.pHolm)}</td><td>{fmt(p.dz)}</td></tr>
-            ))}
-          </tbody>
-        </table>
+      <Section title="Post hoc tests (Holm-corrected)">
+        <div className="space-y-4">
+          <PosthocTable rows={result.posthoc} caption="Paired t tests of TP between conditions over participants; p Holm-corrected over all pairs." />
+          {result.posthocWithinGroups && <PosthocTable rows={result.posthocWithinGroups} caption="The same within each group; Holm over all rows." />}
+          {result.posthocBetweenGroups && <BetweenGroupsTable rows={result.posthocBetweenGroups} />}
+        </div>
       </Section>
 
       <Section title="Participant × condition cells">
@@ -61,7 +58,7 @@ export function ResultTables({ result }: { result: AnalysisResult }) {
           <thead><tr><th>Participant</th><th>Condition</th><th>TP (bits/s)</th><th>MT (ms)</th><th>Error rate</th><th>We ({u})</th><th>IDe (bits)</th></tr></thead>
           <tbody>
             {result.cells.map((c) => (
-              <tr key={`${c.participant}|${c.condition}`}><td>{c.participant}</td><td>{c.condition}</td><td>{fmt(c.tp)}</td><td>{fmt(c.mt, 0)}</td><td>{fmt(c.errorRate * 100, 1)} %</td><td>{fmt(c.we)}</td><td>{fmt(c.ide)}</td></tr>
+              <tr key={`${c.participant}|${c.condition}`}><td>{c.participant}</td><td>{c.condition}</td><td>{fmt(c.tp)}</td><td>{fmt(c.mt, 0)}</td><td>{fmt(pct(c.errorRate), 1)} %</td><td>{fmt(c.we)}</td><td>{fmt(c.ide)}</td></tr>
             ))}
           </tbody>
         </table>
@@ -76,7 +73,7 @@ export function ResultTables({ result }: { result: AnalysisResult }) {
               {result.sequences.map((s) => (
                 <tr key={`${s.participant}|${s.condition}|${s.block}|${s.sequence}`}>
                   <td>{s.participant}</td><td>{s.condition}</td><td>{s.block}</td><td>{s.sequence}</td><td>{s.amplitude}</td><td>{s.width}</td><td>{s.n}</td>
-                  <td>{fmt(s.ae)}</td><td>{fmt(s.we)}</td><td>{fmt(s.ide)}</td><td>{fmt(s.mt, 0)}</td><td>{fmt(s.tp)}</td><td>{fmt(s.errorRate * 100, 1)} %</td>
+                  <td>{fmt(s.ae)}</td><td>{fmt(s.we)}</td><td>{fmt(s.ide)}</td><td>{fmt(s.mt, 0)}</td><td>{fmt(s.tp)}</td><td>{fmt(pct(s.errorRate), 1)} %</td>
                 </tr>
               ))}
             </tbody>

@@ -1,5 +1,6 @@
 "use client";
 import Link from "next/link";
+import { useState } from "react";
 import useSWR from "swr";
 import { fmt } from "./chartStyle";
 import { EndpointChart } from "./EndpointChart";
@@ -9,13 +10,16 @@ import { FittsChart } from "./FittsChart";
 import { LearningChart } from "./LearningChart";
 import { ProgressTable } from "./ProgressTable";
 import { fetchJson, type ResultsResponse } from "./ResultsTypes";
-import { AnovaTable, ConditionTable, PosthocTable } from "./StatsTables";
+import { ExclusionControls, type ExclusionChoice } from "./ExclusionControls";
+import { AnovaTable, BetweenGroupsTable, ConditionTable, GroupConditionTable, PosthocTable } from "./StatsTables";
 import { IntervalBarChart } from "./ThroughputChart";
 
 /** The results page: fetched on the client and refreshed every 15 s while data arrive. */
 export function ResultsDashboard({ studyId }: { studyId: number }) {
-  const { data, error, isLoading } = useSWR(`/api/studies/${studyId}/results`, (u: string) => fetchJson<ResultsResponse>(u), { refreshInterval: 15_000 });
-  if (isLoading) return <p role="status">Loading the results…</p>;
+  const [choice, setChoice] = useState<ExclusionChoice>({ exclude: "misfire", drop: [] });
+  const query = new URLSearchParams({ exclude: choice.exclude, drop: choice.drop.join(",") }).toString();
+  const { data, error, isLoading } = useSWR(`/api/studies/${studyId}/results?${query}`, (u: string) => fetchJson<ResultsResponse>(u), { refreshInterval: 15_000, keepPreviousData: true });
+  if (isLoading && !data) return <p role="status">Loading the results…</p>;
   if (error) return <p className="notice" role="alert">The results could not be loaded: {(error as Error).message}</p>;
   if (!data) return null;
   const view = data.results;
@@ -31,6 +35,7 @@ export function ResultsDashboard({ studyId }: { studyId: number }) {
           <ProgressTable view={view} />
         </section>
       )}
+      {view && <ExclusionControls value={choice} onChange={setChoice} busy={isLoading} />}
       {view?.analysisError && <p className="notice" role="alert">The analysis stopped: {view.analysisError}</p>}
       {view && !a && !view.analysisError && <p className="notice">No movements recorded yet.</p>}
       {view && a && (
@@ -55,23 +60,28 @@ export function ResultsDashboard({ studyId }: { studyId: number }) {
               <div className="grid gap-4 sm:grid-cols-2 xl:grid-cols-4">{view.endpoints.map((c) => <EndpointChart key={c.condition} cloud={c} />)}</div>
             </Figure>
             <div className="card overflow-x-auto"><ConditionTable analysis={a} /></div>
+            {a.conditionsByGroup && <div className="card overflow-x-auto"><GroupConditionTable analysis={a} /></div>}
           </section>
           <section className="card space-y-4 overflow-x-auto" aria-labelledby="stats-title">
             <h2 id="stats-title">Statistics</h2>
-            <AnovaTable rows={a.anova} caption="Repeated-measures ANOVA of TP over participants × conditions; factorial rows test each effect against its own effect × participant interaction; Greenhouse–Geisser corrected p beside the uncorrected one." />
+            <AnovaTable rows={a.anova} caption={`ANOVA of TP over ${a.missing.participantsIncluded} participants × conditions${a.groups ? " with the between-subject factors" : ""}: within effects against their own effect × participants${a.groups ? "-within-groups" : ""} error, between effects against participants within groups; Greenhouse–Geisser and Huynh–Feldt (as R reports it) corrected p beside the uncorrected one; Mauchly's test of sphericity.`} />
             {a.anovaErrorRate && <AnovaTable rows={a.anovaErrorRate} caption="The same ANOVA on error rates (read with the Friedman test below: rates are not normal)." />}
-            {a.friedman && <p className="text-sm">Friedman test on error rates: χ² = {fmt(a.friedman.statistic)}, df = {a.friedman.df}, p = {fmt(a.friedman.p, 3)}.</p>}
-            <PosthocTable rows={a.posthoc} />
+            {a.friedman && <p className="text-sm">Friedman test on error rates: χ² = {fmt(a.friedman.statistic)}, df = {a.friedman.df}, p = {fmt(a.friedman.p, 3)}{a.friedman.note ? ` (${a.friedman.note})` : ""}.</p>}
+            <PosthocTable rows={a.posthoc} caption="Paired t tests of TP between conditions over participants; p Holm-corrected over all pairs; d_z = mean difference / SD of differences. Differences in bits/s." />
+            {a.posthocWithinGroups && <PosthocTable rows={a.posthocWithinGroups} caption="The same paired t tests within each group; p Holm-corrected over all rows of this table." />}
+            {a.posthocBetweenGroups && <BetweenGroupsTable rows={a.posthocBetweenGroups} />}
           </section>
           <section className="card space-y-2" aria-labelledby="excl-title">
             <h2 id="excl-title">Exclusions</h2>
             <ul className="list-disc pl-5 text-sm" data-testid="exclusions">
               <li>Rule: {view.exclusions.rule}.</li>
-              <li>{view.exclusions.removed} of {a.movements} movements removed as misfires: {view.exclusions.short} too short (distance along the axis below A/2), {view.exclusions.far} too far (more than 2W from the target centre).</li>
-              <li>{view.exclusions.sequencesDropped.length} sequence(s) left out for keeping fewer than 2 movements.</li>
-              <li>{view.exclusions.missing?.participantsExcluded ?? 0} participant(s) left out of the ANOVA and tests for lacking a condition{view.exclusions.missing && view.exclusions.missing.cells.length > 0 ? `: ${[...new Set(view.exclusions.missing.cells.map((c) => c.participant))].join(", ")}` : ""}.</li>
+              <li>{a.excluded} of {a.movements} movements removed: {a.exclusions.misfire} as misfires ({view.exclusions.short} too short, distance along the axis below A/2; {view.exclusions.far} too far, more than 2W from the target centre), {a.exclusions.mt3sd} as movement-time outliers, {a.exclusions.timed_out + a.exclusions.recentered + a.exclusions.clutched} for their flags ({a.exclusions.timed_out} timed out, {a.exclusions.recentered} recentered, {a.exclusions.clutched} clutched).</li>
+              <li>{a.timeoutsKept} time-out(s) kept and counted as errors.</li>
+              <li>{view.exclusions.sequencesDropped.length} sequence(s) left out of every summary{view.exclusions.sequencesDropped.length ? `: ${[...new Set(view.exclusions.sequencesDropped.map((d) => d.reason))].join("; ")}` : ""}.</li>
+              <li>{view.exclusions.missing?.participantsExcluded ?? 0} participant(s) left out of every test for lacking a condition{view.exclusions.missing && view.exclusions.missing.participants.length > 0 ? `: ${view.exclusions.missing.participants.map((p) => `${p.participant} (${p.reason})`).join(", ")}` : ""}.</li>
               <li>{view.exclusions.withdrawn.length} withdrawn participant(s) left out entirely{view.exclusions.withdrawn.length ? `: ${view.exclusions.withdrawn.join(", ")}` : ""}.</li>
               {a.notes.map((n) => <li key={n}>{n}</li>)}
+              <li>Values that cannot be computed: {a.rule}</li>
             </ul>
           </section>
         </>
@@ -80,10 +90,10 @@ export function ResultsDashboard({ studyId }: { studyId: number }) {
         <section className="card space-y-2 overflow-x-auto" aria-labelledby="people-title">
           <h2 id="people-title">Participants</h2>
           <table>
-            <thead><tr><th>code</th><th>status</th><th>row</th><th>movements</th></tr></thead>
+            <thead><tr><th>code</th><th>status</th><th>row</th>{view.betweenFactors.map((f) => <th key={f.name}>{f.name}</th>)}<th>movements</th></tr></thead>
             <tbody>
               {view.participants.map((p) => (
-                <tr key={p.id}><td><Link href={`/studies/${studyId}/participants/${p.id}`}>{p.code}</Link></td><td>{p.status.replace("_", " ")}</td><td>{p.cbRow === null ? "–" : p.cbRow + 1}</td><td>{p.movements}</td></tr>
+                <tr key={p.id}><td><Link href={`/studies/${studyId}/participants/${p.id}`}>{p.code}</Link></td><td>{p.status.replace("_", " ")}</td><td>{p.cbRow === null ? "–" : p.cbRow + 1}</td>{view.betweenFactors.map((f) => <td key={f.name}>{p.betweenLevels[f.name] ?? "–"}</td>)}<td>{p.movements}</td></tr>
               ))}
             </tbody>
           </table>

@@ -1,5 +1,8 @@
 import { spawnSync } from "node:child_process";
-import { describe, expect, test } from "vitest";
+import { describe, expect, test, vi } from "vitest";
+
+// Each test starts the CLI in a process of its own (tsx): allow for a busy machine.
+vi.setConfig({ testTimeout: 60_000 });
 
 const FIX = "tests/fixtures/analysis/";
 function run(...args: string[]) {

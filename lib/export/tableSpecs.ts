@@ -1,4 +1,4 @@
-import { TRIAL_COLUMNS, FACTOR_PREFIX, FLAG_COLUMNS } from "../trials/columns";
+import { BETWEEN_PREFIX, TRIAL_COLUMNS, FACTOR_PREFIX, FLAG_COLUMNS } from "../trials/columns";
 
 /** Table Schema field types used here (Frictionless Table Schema v1, "Types and formats"). */
 export type FieldType = "string" | "number" | "integer" | "boolean" | "datetime";
@@ -25,6 +25,9 @@ export interface TableSpec {
 
 const PARTICIPANT: FieldSpec = { name: "participant", type: "string", description: "the participant's pseudonym in this archive (never the participant code)", constraints: { required: true } };
 const CONDITION: FieldSpec = { name: "condition", type: "string", description: "condition label: the levels of the within-subject factors joined by ' / '", constraints: { required: true } };
+
+const betweenFields = (betweenNames: readonly string[]): FieldSpec[] =>
+  betweenNames.map((b) => ({ name: BETWEEN_PREFIX + b, type: "string", description: `level of the between-subject factor "${b}" of this participant (the same in every row of a participant)` }));
 
 const factorFields = (factorNames: readonly string[]): FieldSpec[] =>
   factorNames.map((f) => ({ name: FACTOR_PREFIX + f, type: "string", description: `level of the within-subject factor "${f}" in this condition` }));
@@ -56,7 +59,7 @@ const FLAG_FIELD_TEXT: Record<(typeof FLAG_COLUMNS)[number], string> = {
 };
 
 /** trials.csv: the trial table of the public interface, one row per movement, practice left out. */
-export function trialsTableSpec(unit: string, factorNames: readonly string[]): TableSpec {
+export function trialsTableSpec(unit: string, factorNames: readonly string[], betweenNames: readonly string[] = []): TableSpec {
   return {
     name: "trials",
     path: "trials.csv",
@@ -69,6 +72,7 @@ export function trialsTableSpec(unit: string, factorNames: readonly string[]): T
       }),
       ...FLAG_COLUMNS.map((name): FieldSpec => ({ name, type: "integer", description: FLAG_FIELD_TEXT[name], constraints: { enum: [0, 1] } })),
       ...factorFields(factorNames),
+      ...betweenFields(betweenNames),
     ],
     primaryKey: ["participant", "condition", "block", "sequence", "trial"],
   };

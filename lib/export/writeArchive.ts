@@ -9,7 +9,7 @@ import { buildResult } from "../analysis/buildResult";
 import { TrialAccumulator } from "../analysis/trialAccumulator";
 import type { AnalysisResult } from "../analysis/result";
 import type { TrialRow } from "../trials/trialRow";
-import { analysisUnitOf } from "../results/analysisUnit";
+import { analysisUnitOf, geometryOf } from "../results/analysisUnit";
 import { trialRowFromRecord } from "../results/trialRecord";
 import { conditionsOf } from "../study/design";
 import { formatTrialRow } from "../trials/toTrialCsv";
@@ -121,7 +121,8 @@ export async function writeArchive(
   const factorNames = design.factors.map((f) => f.name);
   const betweenNames = design.betweenFactors.map((f) => f.name);
   const levelsOf = new Map(conditions.map((c) => [c.label, c.factorLevels]));
-  const analysisOptions = analysisOptionsSchema.parse({ start: "actual", exclude: "misfire", unit, file: "trials.csv" });
+  const analysisOptions = analysisOptionsSchema.parse({ start: "actual", exclude: "misfire", unit, geometry: geometryOf(design.task.displayMode), file: "trials.csv" });
+  const groupsOf = new Map(source.participants.map((p) => [p.id, p.betweenLevels]));
   const pseudonymOf = (id: number): string => {
     const p = pseudonyms.get(id);
     if (p === undefined) throw new Error(`writeArchive requires a pseudonym for participant ${id}`);
@@ -147,7 +148,7 @@ export async function writeArchive(
   try {
     // trials.csv, feeding the analysis as it goes (the accumulator is dropped once the result is built)
     onProgress(0, "movements");
-    const trialsSpec = trialsTableSpec(unit, factorNames);
+    const trialsSpec = trialsTableSpec(unit, factorNames, betweenNames);
     let movements = 0;
     const analyse = async (): Promise<AnalysisResult> => {
       const acc = new TrialAccumulator(analysisOptions);
@@ -159,8 +160,9 @@ export async function writeArchive(
           if (factors === undefined) throw new Error(`writeArchive: movement of unknown condition "${rec.condition}"`);
           const row: TrialRow & { line?: number } = trialRowFromRecord(rec, pseudonymOf(rec.participant_id), factors);
           row.line = ++line;
+          if (betweenNames.length > 0) row.groups = groupsOf.get(rec.participant_id) ?? {};
           acc.add(row);
-          chunk += formatTrialRow(row, factorNames, true) + "\n";
+          chunk += formatTrialRow(row, factorNames, { flags: true, between: betweenNames }) + "\n";
           movements++;
           if (chunk.length > 65_536) {
             yield chunk;
@@ -171,7 +173,7 @@ export async function writeArchive(
         if (chunk) yield chunk;
       }
       await add("trials.csv", Readable.from(trialChunks()));
-      return buildResult(acc, analysisOptions, factorNames);
+      return buildResult(acc, analysisOptions, [...factorNames, ...betweenNames]);
     };
     const seqSpec = sequencesTableSpec(unit);
     const cellSpec = cellsTableSpec(unit, factorNames);

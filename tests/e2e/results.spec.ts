@@ -26,7 +26,12 @@ test("a researcher opens the demo study's results, sees the plots, exports, watc
   for (const c of ["motion / low", "motion / high", "touch / low", "touch / high"]) await expect(page.getByTestId("figure-tp").locator("svg")).toContainText(c);
   await expect(page.getByRole("heading", { name: "Statistics" })).toBeVisible();
   await expect(page.getByRole("cell", { name: /^(gain:technique|technique:gain)$/ }).first()).toBeVisible();
-  await expect(page.getByTestId("exclusions")).toContainText("movements removed as misfires");
+  await expect(page.getByTestId("exclusions")).toContainText(/movements removed: \d+ as misfires/);
+  // another exclusion rule: the page recomputes and counts what each rule removed
+  await page.getByLabel("Remove").selectOption("misfire+mt3sd");
+  await expect(page.getByTestId("exclusions")).toContainText("then MT outliers beyond the participant × condition's mean ± 3 SD");
+  await expect(page.getByTestId("exclusions")).toContainText(/\d+ as movement-time outliers/);
+  await page.getByLabel("Remove").selectOption("misfire");
 
   // start an export with stable pseudonyms and streams; watch the progress bar; download
   await page.getByLabel(/stable pseudonyms/).check();
