@@ -7,6 +7,7 @@ import { readZip } from "../fixtures/readZip";
 import { apiAs, apiAsRole, demo, signInWithForm } from "./helpers";
 
 test("a researcher opens the demo study's results, sees the plots, exports, watches progress and downloads", async ({ page }) => {
+  test.setTimeout(180_000); // several recomputations of the analysis and an export, on a shared machine
   const owner = demo("researcher");
   await signInWithForm(page, owner.email, owner.password);
   await page.waitForURL(/\/studies/);
@@ -29,7 +30,7 @@ test("a researcher opens the demo study's results, sees the plots, exports, watc
   await expect(page.getByTestId("exclusions")).toContainText(/movements removed: \d+ as misfires/);
   // another exclusion rule: the page recomputes and counts what each rule removed
   await page.getByLabel("Remove").selectOption("misfire+mt3sd");
-  await expect(page.getByTestId("exclusions")).toContainText("then MT outliers beyond the participant × condition's mean ± 3 SD");
+  await expect(page.getByTestId("exclusions")).toContainText("then MT outliers beyond the participant × condition's mean ± 3 SD", { timeout: 30_000 });
   await expect(page.getByTestId("exclusions")).toContainText(/\d+ as movement-time outliers/);
   await page.getByLabel("Remove").selectOption("misfire");
 
