@@ -317,7 +317,7 @@ describe("view mode on the sphere (science.md §1; spherical trigonometry)", () 
   // an independent way to the great-circle distance than the code's atan2(|S × T|, S·T).
   const lawOfCosines = (y1: number, p1: number, y2: number, p2: number) => {
     const r = Math.PI / 180;
-    return Math.acos(Math.sin(p1 * r) * Math.sin(p2 * r) + Math.cos(p1 * r) * Math.cos(p2 * r) * Math.cos((y2 - y1) * r)) / r;
+    return Math.acos(Math.min(1, Math.sin(p1 * r) * Math.sin(p2 * r) + Math.cos(p1 * r) * Math.cos(p2 * r) * Math.cos((y2 - y1) * r))) / r;
   };
   test("the amplitude is the great-circle distance: 20° of yaw at 60° pitch is about 10°, not 20°", () => {
     const m = projectMovement(0, 60, 20, 60, 20, 60, "sphere");

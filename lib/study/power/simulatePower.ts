@@ -36,15 +36,17 @@ export interface PowerPoint {
  */
 function detects(levelMeans: number[][], levels: number, alpha: number): boolean {
   const effect = rmAnova(levelMeans, [{ name: "main", levels }])[0]!;
-  const p = levels > 2 ? effect.pGG : effect.p;
-  if (!(p < alpha)) return false;
+  // GG cannot be computed with fewer error df than levels − 1: the lower-bound ε (conservative) then.
+  const p = levels > 2 ? (effect.pGG ?? effect.pLowerBound) : effect.p;
+  if (p === null || !(p < alpha)) return false;
   if (levels === 2) return true;
   const pairs: [number, number][] = [];
   for (let a = 0; a < levels; a++) for (let b = a + 1; b < levels; b++) pairs.push([a, b]);
   const ps = pairs.map(([a, b]) => pairedT(levelMeans.map((r) => r[b]!), levelMeans.map((r) => r[a]!)).p);
   const adjusted = holm(ps);
   const extreme = pairs.findIndex(([a, b]) => a === 0 && b === levels - 1);
-  return adjusted[extreme]! < alpha;
+  const q = adjusted[extreme];
+  return q !== null && q !== undefined && q < alpha;
 }
 
 /**
