@@ -4,6 +4,13 @@ import { z } from "zod";
 export const techniques = ["motion", "stick", "motion+stick", "motion+touch", "mouse", "touch", "tilt-rate"] as const;
 export type Technique = (typeof techniques)[number];
 
+/**
+ * The engine's input channels, which the clutch can cover: `motion` (device rotation), `tilt`
+ * (tilt-rate), `stick` (stick rate and heading stick) and `pointer` (mouse and touch).
+ */
+export const inputChannels = ["motion", "tilt", "stick", "pointer"] as const;
+export type InputChannel = (typeof inputChannels)[number];
+
 const button = z.number().int().min(0).max(31).nullable();
 const positive = z.number().finite().positive();
 const nonNegative = z.number().finite().min(0);
@@ -22,6 +29,7 @@ export const transferConfigSchema = z
     frame: z.enum(["device", "gravity", "adaptive"]).default("device"),
     deviceHorizontalAxis: z.enum(["screen-normal", "screen-up", "both"]).default("screen-up"),
     gravityFilterTimeMs: nonNegative.max(10_000).default(500),
+    accelerometerInverted: z.boolean().default(false),
 
     biasXDegPerS: z.number().finite().min(-50).max(50).default(0),
     biasYDegPerS: z.number().finite().min(-50).max(50).default(0),
@@ -45,13 +53,13 @@ export const transferConfigSchema = z
     addedLatencyMs: nonNegative.max(1000).default(0),
     maxSampleGapMs: positive.max(10_000).default(100),
 
-    stickMode: z.enum(["rate", "snap-turn"]).default("rate"),
+    stickMode: z.enum(["rate", "heading"]).default("rate"),
     stickDeadZone: nonNegative.max(0.9).default(0.15),
     stickOuterEdge: positive.max(1).default(0.95),
     stickExponent: positive.max(5).default(2),
     stickMaxRateDegPerS: positive.max(2000).default(180),
-    snapTurnThreshold: positive.max(1).default(0.9),
-    snapTurnDurationMs: nonNegative.max(2000).default(100),
+    headingRimThreshold: positive.max(1).default(0.9),
+    headingTurnTimeMs: nonNegative.max(2000).default(100),
 
     tiltDeadZoneDeg: nonNegative.max(45).default(5),
     tiltMaxDeg: positive.max(90).default(30),
@@ -63,6 +71,7 @@ export const transferConfigSchema = z
 
     clutchButton: button.default(0),
     clutchMode: z.enum(["hold", "toggle"]).default("hold"),
+    clutchChannels: z.array(z.enum(inputChannels)).max(inputChannels.length).default([...inputChannels]),
     activation: z.enum(["always", "while-aiming"]).default("always"),
     aimButton: button.default(1),
     recenterButton: button.default(2),
@@ -79,6 +88,11 @@ export const transferConfigSchema = z
     }
     if (c.activation === "while-aiming" && c.aimButton === null) {
       ctx.addIssue({ code: "custom", path: ["aimButton"], message: "must be set when activation is while-aiming" });
+    }
+    const seen = new Set<string>();
+    for (const ch of c.clutchChannels) {
+      if (seen.has(ch)) ctx.addIssue({ code: "custom", path: ["clutchChannels"], message: `lists "${ch}" twice` });
+      seen.add(ch);
     }
     const used: Array<[string, number | null]> = [["clutchButton", c.clutchButton], ["aimButton", c.aimButton], ["recenterButton", c.recenterButton]];
     for (let i = 0; i < used.length; i++) {
@@ -118,6 +132,8 @@ export class TransferConfigError extends Error {
  * @example parseTransferConfig({ gain: 6 }).gain // 6
  */
 export function parseTransferConfig(input: unknown): TransferConfig {
+  const renamed = renamedFieldIssues(input);
+  if (renamed.length > 0) throw new TransferConfigError(renamed);
   const result = transferConfigSchema.safeParse(input);
   if (result.success) return result.data;
   const issues = result.error.issues.map((issue) => {
@@ -128,4 +144,27 @@ export function parseTransferConfig(input: unknown): TransferConfig {
     return `${field}: ${issue.message}`;
   });
   throw new TransferConfigError(issues);
+}
+
+/** Fields and values renamed since configurations were first stored: old name → new name. */
+export const renamedConfigFields: Readonly<Record<string, string>> = {
+  snapTurnThreshold: "headingRimThreshold",
+  snapTurnDurationMs: "headingTurnTimeMs",
+};
+
+/**
+ * Issues for names a configuration may still carry from before a rename (renamedFieldIssues):
+ * `stickMode: "snap-turn"` (now `"heading"`) and the `snapTurn*` fields. Stored designs were
+ * rewritten by a migration; files kept elsewhere (replay configurations, old archives) are
+ * refused with the new name rather than read silently. Cost: O(fields).
+ */
+function renamedFieldIssues(input: unknown): string[] {
+  if (input === null || typeof input !== "object" || Array.isArray(input)) return [];
+  const o = input as Record<string, unknown>;
+  const issues: string[] = [];
+  if (o.stickMode === "snap-turn") issues.push('stickMode: "snap-turn" was renamed "heading" (the heading stick); use "heading"');
+  for (const [old, now] of Object.entries(renamedConfigFields)) {
+    if (old in o) issues.push(`${old}: was renamed ${now}; use ${now}`);
+  }
+  return issues;
 }

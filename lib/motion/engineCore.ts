@@ -1,29 +1,39 @@
 // The motion-aim engine without validation: only type imports of the configuration schema.
-import type { TransferConfig } from "./config";
-import { createDelayLine } from "./delayLine";
-import { adaptiveFrameHorizontal } from "./frames/adaptiveFrame";
-import { deviceFrameHorizontal } from "./frames/deviceFrame";
-import { updateGravityEstimate, type Vec3 } from "./frames/gravityEstimate";
-import { gravityFrameHorizontal, gravityFrameVertical } from "./frames/gravityFrame";
-import { screenFrameX, screenFrameY } from "./frames/screenFrame";
-import { speedAfterDeadBand } from "./gain/deadBand";
-import { exponentialSmoothingFactor, fineAimDirectWeight } from "./gain/fineAimSmoothing";
-import { gainAtSpeed } from "./gain/gainAtSpeed";
+// It composes the stages of ./stages (each a small function of its own state and the sample).
+import type { InputChannel, TransferConfig } from "./config";
+import type { Vec3 } from "./frames/gravityEstimate";
 import type { MotionSample } from "./sample";
-import { stickHeadingDeg, wrapAngleDeg } from "./stick/stickHeading";
-import { stickRateMagnitude } from "./stick/stickRate";
-import { tiltForwardDeg, tiltSidewaysDeg } from "./stick/tiltAngles";
 import { isValidSample } from "./sampleValidity";
+import { biasStep, type BiasParams } from "./stages/bias";
+import { controlsParams, controlsStep, createControlsState } from "./stages/controls";
+import { displayUnitsStep } from "./stages/displayUnits";
+import { deadBandStep } from "./stages/deadBand";
+import { clearFineAimSmoothing, createFineAimSmoothingState, fineAimSmoothingStep, type FineAimSmoothingParams } from "./stages/fineAimSmoothing";
+import { gainCurveStage, type GainStageParams } from "./stages/gainCurve";
+import { createGravityReferenceState, gravityReferenceStep, resetGravityReference, type GravityReferenceParams } from "./stages/gravityReference";
+import { createHeadingStickState, headingStickStep, type HeadingStickParams } from "./stages/headingStickChannel";
+import { clearLatency, createLatencyState, latencyStep } from "./stages/latency";
+import { pointerDeltaStep, pointerPositionStep, type OutputPosition, type PointerChannelParams } from "./stages/pointerChannel";
+import { motionViewStep } from "./stages/motionChannel";
+import { referenceFrameStage, type ReferenceFrameParams } from "./stages/referenceFrame";
+import { createSampleClockState, sampleClockStep } from "./stages/sampleClock";
+import { createScreenRotationState, screenRotationStep } from "./stages/screenRotation";
+import { stickRateStep, type StickRateParams } from "./stages/stickRateChannel";
+import { createTiltReferenceState, resetTiltReference, tiltChannelStep, type TiltChannelParams } from "./stages/tiltChannel";
+import { createStageWork, type StageWork } from "./stages/work";
 
 /**
  * One output step. View mode: `dx` = yaw change in degrees, positive to the right; `dy` = pitch
  * change in degrees, positive up. Cursor mode: `dx`, `dy` in CSS px, y down positive (page
- * coordinates). `recentered` is true on the sample where the recenter button was pressed.
+ * coordinates). `recentered` is true on the sample where the recenter button was pressed (the
+ * output itself never jumps: recenter resets orientation references only); `clutched` is true
+ * while the clutch is engaged (the runner flags movements during which either happened).
  */
 export interface MotionOutput {
   dx: number;
   dy: number;
   recentered: boolean;
+  clutched: boolean;
 }
 
 /** The stateful motion-aim engine: one per participant × condition stream. */
@@ -44,8 +54,19 @@ export interface MotionEngine {
   readonly motionActive: boolean;
   /** Copy the current "up" estimate (unit vector, device axes) into `out`. */
   readUp(out: Vec3): void;
-  /** The same as pressing the recenter button: new tilt reference, smoothing and snap turn reset. */
+  /**
+   * The same as pressing the recenter button (from the next sample): a new tilt reference and
+   * gravity reference; nothing moves. Prefer the button bit in the samples, so that a recorded
+   * stream replays the recenter too.
+   */
   recenter(): void;
+  /**
+   * Where the output has got to, in output units, before added latency (it starts at 0, 0 and
+   * adds every step). Absolute pointer positions (`pointerX/Y`, the touch technique in cursor
+   * mode) move the cursor from here to the finger: tell the engine where the cursor starts, in
+   * the coordinates the pointer positions use. Replay does the same with `--start X,Y`.
+   */
+  setPosition(x: number, y: number): void;
   /** Back to the state of a new engine. */
   reset(): void;
 }
@@ -53,10 +74,22 @@ export interface MotionEngine {
 /** Capacity of the added-latency queue (entries): 1000 ms at up to 4 kHz. */
 export const LATENCY_QUEUE_CAPACITY = 4096;
 
-
-
 /** The engine's hot-path sample check (the same function as `isValidSample`, without the schema module). */
 export const sampleIsUsable = isValidSample;
+
+/** Which channels a technique feeds (usesChannel). Cost: O(1). */
+export function usesChannel(technique: TransferConfig["technique"], channel: InputChannel): boolean {
+  switch (channel) {
+    case "motion":
+      return technique === "motion" || technique === "motion+stick" || technique === "motion+touch";
+    case "tilt":
+      return technique === "tilt-rate";
+    case "stick":
+      return technique === "stick" || technique === "motion+stick";
+    case "pointer":
+      return technique === "motion+touch" || technique === "mouse" || technique === "touch";
+  }
+}
 
 /**
  * Create a motion-aim engine from a configuration that is already validated
@@ -64,233 +97,139 @@ export const sampleIsUsable = isValidSample;
  *
  * Purpose: the engine of {@link createMotionEngine} without the validation step, so a browser
  * bundle that receives configurations the server has already validated (and defaulted) does not
- * carry the schema library. Turns input samples into view or cursor deltas with the configured
- * transfer function: bias removal → screen frame → reference frame (device / gravity / adaptive)
- * → dead band → gain curve with H/V multipliers → fine-aim smoothing → clutch and activation;
- * plus tilt-rate, stick (rate or snap-turn) and pointer channels by technique; then pixels per
- * degree (cursor mode) and added latency. Source: science.md §7–8 (W3C axes; Casiez & Roussel
- * 2011 CD gain). Cost: O(1) per sample, no allocation in `push`.
+ * carry the schema library. Each sample runs through named stages (./stages): clock → controls
+ * (clutch, activation, recenter) → bias → gravity reference → screen frame → reference frame →
+ * dead band → gain curve → fine-aim smoothing (motion channel); the tilt-rate, stick (rate or
+ * heading) and pointer channels by technique; display units; added latency. The clutch
+ * suspends the channels `clutchChannels` names; recenter resets the tilt and gravity references
+ * after the sample's output. Source: science.md §7–8 (W3C axes; Casiez & Roussel 2011 CD gain).
+ * Cost: O(1) per sample, no allocation in `push`.
  * @throws never itself; a configuration that did not pass `parseTransferConfig` gives undefined
  *   behaviour (use {@link createMotionEngine} for unchecked input).
  * @example const e = createMotionEngineFromValid(parseTransferConfig({ gain: 6 })); e.push({ tMs: 0, gyroX: 0, gyroY: 0, gyroZ: 0 }); e.push({ tMs: 100, gyroX: 0, gyroY: 30, gyroZ: 0 })?.dx // -18
  */
 export function createMotionEngineFromValid(c: TransferConfig): MotionEngine {
-  const motionChannel = c.technique === "motion" || c.technique === "motion+stick" || c.technique === "motion+touch";
-  const tiltChannel = c.technique === "tilt-rate";
-  const stickChannel = c.technique === "stick" || c.technique === "motion+stick";
-  const pointerChannel = c.technique === "motion+touch" || c.technique === "mouse" || c.technique === "touch";
+  const motionChannel = usesChannel(c.technique, "motion");
+  const tiltChannel = usesChannel(c.technique, "tilt");
+  const stickChannel = usesChannel(c.technique, "stick");
+  const pointerChannel = usesChannel(c.technique, "pointer");
+  const headingStick = c.stickMode === "heading";
+  const deviceInput = motionChannel || tiltChannel;
   const needUp = tiltChannel || (motionChannel && c.frame !== "device");
   const cursor = c.displayMode === "cursor";
-  const clutchMask = c.clutchButton === null ? 0 : 2 ** c.clutchButton;
-  const aimMask = c.aimButton === null ? 0 : 2 ** c.aimButton;
-  const recenterMask = c.recenterButton === null ? 0 : 2 ** c.recenterButton;
-  const gravityTauS = c.gravityFilterTimeMs / 1000;
-  const delay = createDelayLine(LATENCY_QUEUE_CAPACITY);
-  const out: MotionOutput = { dx: 0, dy: 0, recentered: false };
-  const up: Vec3 = { x: 0, y: 0, z: 1 };
+  const clutchMotion = c.clutchChannels.includes("motion");
+  const clutchTilt = c.clutchChannels.includes("tilt");
+  const clutchStick = c.clutchChannels.includes("stick");
+  const clutchPointer = c.clutchChannels.includes("pointer");
+  const verticalSign = c.invertVertical ? -1 : 1;
 
-  let accepted = 0, dropped = 0;
-  let hasTime = false, lastT = 0;
-  let upReady = false;
-  let prevButtons = 0, clutchLatched = false, active = true;
-  let smoothX = 0, smoothY = 0;
-  let tiltRefSet = false, tiltRefSideways = 0, tiltRefForward = 0;
-  let atRim = false, rimHeading = 0, pendingTurn = 0, pendingMs = 0;
-  let cachedAngle = 0, cosA = 1, sinA = 0;
+  const controlsP = controlsParams(c);
+  const biasP: BiasParams = { x: c.biasXDegPerS, y: c.biasYDegPerS, z: c.biasZDegPerS };
+  const gravityP: GravityReferenceParams = { sign: c.accelerometerInverted ? -1 : 1, timeConstantS: c.gravityFilterTimeMs / 1000 };
+  const frameP: ReferenceFrameParams = { axis: c.deviceHorizontalAxis, verticalSign };
+  const gainP: GainStageParams = {
+    curve: {
+      gain: c.gain, gainCurve: c.gainCurve, curveSlowSpeedDegPerS: c.curveSlowSpeedDegPerS, curveFastSpeedDegPerS: c.curveFastSpeedDegPerS,
+      curveSlowGainFactor: c.curveSlowGainFactor, curveExponent: c.curveExponent, curveReferenceSpeedDegPerS: c.curveReferenceSpeedDegPerS,
+    },
+    horizontalMultiplier: c.horizontalGainMultiplier,
+    verticalMultiplier: c.verticalGainMultiplier,
+  };
+  const smoothingP: FineAimSmoothingParams = { timeMs: c.smoothingTimeMs, speedDegPerS: c.smoothingSpeedDegPerS };
+  const tiltP: TiltChannelParams = { deadZoneDeg: c.tiltDeadZoneDeg, maxDeg: c.tiltMaxDeg, exponent: c.tiltExponent, maxRateDegPerS: c.tiltMaxRateDegPerS, verticalSign };
+  const stickP: StickRateParams = { deadZone: c.stickDeadZone, outerEdge: c.stickOuterEdge, exponent: c.stickExponent, maxRateDegPerS: c.stickMaxRateDegPerS, verticalSign };
+  const headingP: HeadingStickParams = { rimThreshold: c.headingRimThreshold, turnTimeMs: c.headingTurnTimeMs };
+  const pointerP: PointerChannelParams = { cursor, gain: cursor ? c.pointerCursorGain : c.pointerDegreesPerPixel, verticalSign };
+  const clockP = { maxGapMs: c.maxSampleGapMs };
+  const deadBandP = { deadBandDegPerS: c.deadBandDegPerS };
+  const unitsP = { cursor, pixelsPerDegree: c.pixelsPerDegree };
+  const latencyP = { delayMs: c.addedLatencyMs };
 
-  const bit = (buttons: number, mask: number): boolean => mask !== 0 && Math.floor(buttons / mask) % 2 === 1;
+  // Every stage takes objects only (the sample, the work record, its state and parameters): a
+  // number passed to or returned from a call that is not inlined would be boxed on the heap.
+  const work = createStageWork();
+  const clock = createSampleClockState();
+  const controls = createControlsState();
+  const up = createGravityReferenceState();
+  const screen = createScreenRotationState();
+  const smoothing = createFineAimSmoothingState();
+  const tilt = createTiltReferenceState();
+  const heading = createHeadingStickState();
+  const position: OutputPosition = { x: 0, y: 0 };
+  const delay = createLatencyState(LATENCY_QUEUE_CAPACITY);
+  const out: MotionOutput = { dx: 0, dy: 0, recentered: false, clutched: false };
+  let accepted = 0, dropped = 0, motionOn = true;
 
-  function doRecenter(): void {
-    tiltRefSet = false;
-    smoothX = 0;
-    smoothY = 0;
-    pendingTurn = 0;
-    pendingMs = 0;
-    atRim = false;
+  function resetReferences(): void {
+    resetTiltReference(tilt);
+    resetGravityReference(up);
+  }
+
+  // The pipeline: the stages this configuration needs, in order, each taking objects only. They
+  // run from one loop, so no stage is inlined into push: each is compiled on its own and inlines
+  // its small helpers (a number passed out of a call that is not inlined would be boxed).
+  const gate = { motion: true, tilt: true, stick: true, pointer: true };
+  const pipeline: ((work: StageWork, sample: MotionSample) => void)[] = [];
+  if (deviceInput) {
+    pipeline.push((w, s) => biasStep(w, biasP, s));
+    if (needUp) pipeline.push((w, s) => gravityReferenceStep(up, gravityP, w, s));
+    pipeline.push((w, s) => screenRotationStep(screen, s, w, up));
+  }
+  if (motionChannel) {
+    const frameStep = referenceFrameStage(c.frame), gainStep = gainCurveStage(c.gainCurve);
+    pipeline.push((w) => gate.motion && frameStep(w, frameP));
+    pipeline.push((w) => gate.motion && deadBandStep(w, deadBandP));
+    pipeline.push((w) => gate.motion && gainStep(w, gainP));
+    pipeline.push((w) => (gate.motion ? fineAimSmoothingStep(smoothing, smoothingP, w) : clearFineAimSmoothing(smoothing)));
+    pipeline.push((w) => gate.motion && motionViewStep(w));
+  }
+  if (tiltChannel) pipeline.push((w) => tiltChannelStep(tilt, tiltP, w, gate.tilt));
+  if (stickChannel && headingStick) pipeline.push((w, s) => headingStickStep(heading, headingP, w, s, gate.stick));
+  if (stickChannel && !headingStick) pipeline.push((w, s) => gate.stick && stickRateStep(stickP, w, s));
+  pipeline.push((w) => displayUnitsStep(w, unitsP));
+  if (pointerChannel) pipeline.push((w, s) => gate.pointer && pointerDeltaStep(pointerP, w, s));
+  if (pointerChannel && cursor) pipeline.push((w, s) => gate.pointer && pointerPositionStep(w, position, s));
+  const stageCount = pipeline.length;
+
+  function push(s: MotionSample): Readonly<MotionOutput> | null {
+    if (!sampleIsUsable(s) || !sampleClockStep(clock, clockP, s, work)) {
+      dropped++;
+      return null;
+    }
+    accepted++;
+    work.viewX = 0;
+    work.viewY = 0;
+    controlsStep(controls, controlsP, s);
+    const clutched = controls.clutched;
+    gate.motion = motionOn = controls.aiming && !(clutched && clutchMotion);
+    gate.tilt = controls.aiming && !(clutched && clutchTilt);
+    gate.stick = !(clutched && clutchStick);
+    gate.pointer = !(clutched && clutchPointer);
+    for (let i = 0; i < stageCount; i++) (pipeline[i] as (typeof pipeline)[number])(work, s);
+    position.x += work.outX;
+    position.y += work.outY;
+    latencyStep(delay, latencyP, s, work, out);
+    out.recentered = controls.recenterPressed;
+    out.clutched = clutched;
+    if (controls.recenterPressed) resetReferences();
+    return out;
   }
 
   function reset(): void {
     accepted = 0;
     dropped = 0;
-    hasTime = false;
-    lastT = 0;
-    upReady = false;
-    up.x = 0;
-    up.y = 0;
-    up.z = 1;
-    prevButtons = 0;
-    clutchLatched = false;
-    active = true;
-    doRecenter();
-    delay.clear();
-  }
-
-  function push(s: MotionSample): Readonly<MotionOutput> | null {
-    if (!sampleIsUsable(s) || (hasTime && s.tMs < lastT)) {
-      dropped++;
-      return null;
-    }
-    accepted++;
-    const rawDtMs = hasTime ? s.tMs - lastT : 0;
-    const dtMs = rawDtMs > c.maxSampleGapMs ? c.maxSampleGapMs : rawDtMs;
-    const dtS = dtMs / 1000;
-    hasTime = true;
-    lastT = s.tMs;
-    out.recentered = false;
-
-    // buttons: clutch (hold/toggle), activation, recenter (rising edge)
-    const buttons = s.buttons ?? 0;
-    const clutchDown = bit(buttons, clutchMask);
-    if (c.clutchMode === "toggle" && clutchDown && !bit(prevButtons, clutchMask)) clutchLatched = !clutchLatched;
-    const clutched = c.clutchMode === "hold" ? clutchDown : clutchLatched;
-    active = !clutched && (c.activation === "always" || bit(buttons, aimMask));
-    if (bit(buttons, recenterMask) && !bit(prevButtons, recenterMask)) {
-      doRecenter();
-      out.recentered = true;
-    }
-    prevButtons = buttons;
-
-    // bias removal (device axes), then the "up" estimate (device axes)
-    const wx = s.gyroX - c.biasXDegPerS, wy = s.gyroY - c.biasYDegPerS, wz = s.gyroZ - c.biasZDegPerS;
-    if (needUp) {
-      const ax = s.accelX, ay = s.accelY, az = s.accelZ;
-      if (!upReady && ax !== undefined && ay !== undefined && az !== undefined) {
-        const n = Math.sqrt(ax * ax + ay * ay + az * az);
-        if (n > 1e-6) {
-          up.x = ax / n;
-          up.y = ay / n;
-          up.z = az / n;
-          upReady = true;
-        }
-      } else {
-        updateGravityEstimate(up, wx, wy, wz, ax ?? NaN, ay ?? NaN, az ?? NaN, dtS, gravityTauS);
-      }
-    }
-
-    // screen frame (screenFrameX/Y, with the angle's cosine and sine cached)
-    const angle = s.screenAngleDeg ?? 0;
-    if (angle !== cachedAngle) {
-      cachedAngle = angle;
-      cosA = screenFrameX(1, 0, angle);
-      sinA = screenFrameY(1, 0, angle);
-    }
-    const rx = wx * cosA - wy * sinA, ry = wx * sinA + wy * cosA, rz = wz;
-    const ux = up.x * cosA - up.y * sinA, uy = up.x * sinA + up.y * cosA, uz = up.z;
-
-    let viewX = 0, viewY = 0; // view degrees, y up
-    if (motionChannel) {
-      let h: number, v: number;
-      if (c.frame === "device") {
-        h = deviceFrameHorizontal(ry, rz, c.deviceHorizontalAxis);
-        v = rx;
-      } else if (c.frame === "gravity") {
-        h = gravityFrameHorizontal(rx, ry, rz, ux, uy, uz);
-        v = gravityFrameVertical(rx, ry, rz, ux, uy, uz);
-      } else {
-        h = adaptiveFrameHorizontal(ry, rz, uy, uz);
-        v = rx;
-      }
-      // Turning left (positive about "up") moves left; tilting the top edge away from the viewer
-      // (negative about x, right-hand rule) moves up, as a camera would (science.md §8 "Signs").
-      const rateX = -h, rateY = c.invertVertical ? v : -v;
-      const speed = Math.sqrt(rateX * rateX + rateY * rateY);
-      const reduced = speedAfterDeadBand(speed, c.deadBandDegPerS);
-      const scale = speed > 0 ? reduced / speed : 0;
-      const g = gainAtSpeed(c, reduced) * scale;
-      let ox = g * c.horizontalGainMultiplier * rateX;
-      let oy = g * c.verticalGainMultiplier * rateY;
-      if (active) {
-        if (c.smoothingTimeMs > 0) {
-          const alpha = exponentialSmoothingFactor(dtMs, c.smoothingTimeMs);
-          smoothX += alpha * (ox - smoothX);
-          smoothY += alpha * (oy - smoothY);
-          const w = fineAimDirectWeight(reduced, c.smoothingSpeedDegPerS);
-          ox = w * ox + (1 - w) * smoothX;
-          oy = w * oy + (1 - w) * smoothY;
-        }
-        viewX = ox * dtS;
-        viewY = oy * dtS;
-      } else {
-        smoothX = 0;
-        smoothY = 0;
-      }
-    }
-    if (tiltChannel) {
-      const sideways = tiltSidewaysDeg(ux), forward = tiltForwardDeg(uy, uz);
-      if (!tiltRefSet) {
-        tiltRefSideways = sideways;
-        tiltRefForward = forward;
-        tiltRefSet = true;
-      }
-      const tx = -(sideways - tiltRefSideways), ty = wrapAngleDeg(forward - tiltRefForward);
-      const mag = Math.sqrt(tx * tx + ty * ty);
-      if (active && mag > 0) {
-        const rate = stickRateMagnitude(mag / c.tiltMaxDeg, c.tiltDeadZoneDeg / c.tiltMaxDeg, 1, c.tiltExponent, c.tiltMaxRateDegPerS);
-        viewX += (rate * tx * dtS) / mag;
-        viewY += (rate * ty * dtS) / mag;
-      }
-    }
-    if (stickChannel) {
-      const sx = s.stickX ?? 0, sy = s.stickY ?? 0;
-      const r = Math.sqrt(sx * sx + sy * sy);
-      if (c.stickMode === "rate") {
-        if (r > 0) {
-          const rate = stickRateMagnitude(r, c.stickDeadZone, c.stickOuterEdge, c.stickExponent, c.stickMaxRateDegPerS);
-          viewX += (rate * sx * dtS) / r;
-          viewY -= (rate * sy * dtS) / r;
-        }
-      } else {
-        if (r >= c.snapTurnThreshold) {
-          const heading = stickHeadingDeg(sx, sy);
-          if (!atRim) {
-            pendingTurn += heading;
-            pendingMs = c.snapTurnDurationMs;
-            atRim = true;
-          } else {
-            viewX += wrapAngleDeg(heading - rimHeading);
-          }
-          rimHeading = heading;
-        } else {
-          atRim = false;
-        }
-        if (pendingTurn !== 0) {
-          if (pendingMs <= dtMs) {
-            viewX += pendingTurn;
-            pendingTurn = 0;
-            pendingMs = 0;
-          } else {
-            const part = (pendingTurn * dtMs) / pendingMs;
-            viewX += part;
-            pendingTurn -= part;
-            pendingMs -= dtMs;
-          }
-        }
-      }
-    }
-    let x: number, y: number;
-    if (cursor) {
-      x = viewX * c.pixelsPerDegree;
-      y = -viewY * c.pixelsPerDegree;
-      if (pointerChannel) {
-        x += (s.pointerDx ?? 0) * c.pointerCursorGain;
-        y += (s.pointerDy ?? 0) * c.pointerCursorGain;
-      }
-    } else {
-      x = viewX;
-      y = viewY;
-      if (pointerChannel) {
-        x += (s.pointerDx ?? 0) * c.pointerDegreesPerPixel;
-        y -= (s.pointerDy ?? 0) * c.pointerDegreesPerPixel;
-      }
-    }
-    if (c.addedLatencyMs > 0) {
-      delay.enqueue(s.tMs, x, y);
-      delay.release(s.tMs, c.addedLatencyMs, out);
-    } else {
-      out.dx = x;
-      out.dy = y;
-    }
-    return out;
+    motionOn = true;
+    position.x = 0;
+    position.y = 0;
+    Object.assign(clock, createSampleClockState());
+    Object.assign(controls, createControlsState());
+    Object.assign(up, createGravityReferenceState());
+    Object.assign(screen, createScreenRotationState());
+    Object.assign(smoothing, createFineAimSmoothingState());
+    Object.assign(tilt, createTiltReferenceState());
+    Object.assign(heading, createHeadingStickState());
+    Object.assign(work, createStageWork());
+    clearLatency(delay);
   }
 
   return {
@@ -306,14 +245,18 @@ export function createMotionEngineFromValid(c: TransferConfig): MotionEngine {
       return delay.overflows;
     },
     get motionActive() {
-      return active;
+      return motionOn;
     },
     readUp(target) {
       target.x = up.x;
       target.y = up.y;
       target.z = up.z;
     },
-    recenter: doRecenter,
+    recenter: resetReferences,
+    setPosition(x, y) {
+      position.x = x;
+      position.y = y;
+    },
     reset,
   };
 }

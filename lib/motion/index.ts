@@ -6,7 +6,7 @@ export {
 } from "./config";
 export { presets, presetNames, presetConfig, type PresetName } from "./presets";
 export { createMotionEngine, LATENCY_QUEUE_CAPACITY, type MotionEngine, type MotionOutput } from "./engine";
-export { createDelayLine, type DelayLine } from "./delayLine";
+export * from "./stages";
 export { parseSampleCsv, sampleFromTable, formatSampleCsv, SampleCsvError, sampleColumns, type SampleTable, type SampleColumn } from "./csv";
 export * from "./frames";
 export * from "./gain";

@@ -25,7 +25,7 @@ export const presets = {
   /** Touch drag for coarse turns, motion for fine aim. */
   "touch-coarse-motion-fine": { technique: "motion+touch", frame: "device", gain: 1.5, pointerDegreesPerPixel: 0.25 },
   /** Stick direction sets the heading; motion gives the vertical. */
-  "heading-stick": { technique: "motion+stick", stickMode: "snap-turn", frame: "adaptive", gain: 2 },
+  "heading-stick": { technique: "motion+stick", stickMode: "heading", frame: "adaptive", gain: 2 },
   /** Motion only while the aim button is held (e.g. a trigger). */
   "aim-button-motion": { technique: "motion", frame: "adaptive", gain: 3, activation: "while-aiming" },
   /** Thumbstick rate control alone. */

@@ -12,6 +12,12 @@ import { z } from "zod";
  * - `buttons`: bitmask, bit i = button i held.
  * - `pointerDx/Dy`: pointer (mouse or touch drag) movement since the previous sample, CSS px,
  *   y down positive.
+ * - `pointerX/Y`: where a touching finger (or pointer) is, CSS px in the cursor's coordinates
+ *   (x right, y down), both or neither; absent while nothing touches. Cursor mode puts the cursor
+ *   there (the `touch` technique's absolute positioning); view mode ignores them.
+ * - `selected`: 1 on the sample after which the participant selected (the selection point is the
+ *   output up to and including this sample), else 0 or absent. The engine ignores it; it lets a
+ *   replayed stream be matched with the trial table.
  * - `screenAngleDeg`: `screen.orientation.angle` (how far the device is turned counter-clockwise
  *   from its natural orientation; default 0).
  */
@@ -28,7 +34,10 @@ export interface MotionSample {
   buttons?: number | undefined;
   pointerDx?: number | undefined;
   pointerDy?: number | undefined;
+  pointerX?: number | undefined;
+  pointerY?: number | undefined;
   screenAngleDeg?: number | undefined;
+  selected?: number | undefined;
 }
 
 const finite = z.number().finite();
@@ -48,13 +57,20 @@ export const motionSampleSchema = z
     buttons: z.number().int().min(0).max(0xffffffff).optional(),
     pointerDx: finite.optional(),
     pointerDy: finite.optional(),
+    pointerX: finite.optional(),
+    pointerY: finite.optional(),
     screenAngleDeg: finite.optional(),
+    selected: z.union([z.literal(0), z.literal(1)]).optional(),
   })
   .refine(
     (s) =>
       (s.accelX === undefined) === (s.accelY === undefined) &&
       (s.accelY === undefined) === (s.accelZ === undefined),
     { message: "accelX, accelY and accelZ must be given together", path: ["accelX"] },
-  );
+  )
+  .refine((s) => (s.pointerX === undefined) === (s.pointerY === undefined), {
+    message: "pointerX and pointerY must be given together",
+    path: ["pointerX"],
+  });
 
 export { isValidSample } from "./sampleValidity";

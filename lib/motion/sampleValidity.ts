@@ -28,5 +28,9 @@ export function isValidSample(s: MotionSample): boolean {
   if (sy !== undefined && (!isFiniteNumber(sy) || sy < -1 || sy > 1)) return false;
   const b = s.buttons;
   if (b !== undefined && (!Number.isInteger(b) || b < 0 || b > 0xffffffff)) return false;
+  const px = s.pointerX, py = s.pointerY;
+  if ((px === undefined) !== (py === undefined) || !isOptionalFinite(px) || !isOptionalFinite(py)) return false;
+  const sel = s.selected;
+  if (sel !== undefined && sel !== 0 && sel !== 1) return false;
   return isOptionalFinite(s.pointerDx) && isOptionalFinite(s.pointerDy) && isOptionalFinite(s.screenAngleDeg);
 }

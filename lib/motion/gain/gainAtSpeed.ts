@@ -2,6 +2,12 @@ import type { TransferConfig } from "../config";
 import { powerGainFactor } from "./powerGainFactor";
 import { twoLevelGainFactor } from "./twoLevelGainFactor";
 
+/** The configuration fields a gain curve reads. */
+export type GainCurveParams = Pick<
+  TransferConfig,
+  "gain" | "gainCurve" | "curveSlowSpeedDegPerS" | "curveFastSpeedDegPerS" | "curveSlowGainFactor" | "curveExponent" | "curveReferenceSpeedDegPerS"
+>;
+
 /**
  * CD gain at a device speed (gainAtSpeed).
  *
@@ -12,7 +18,7 @@ import { twoLevelGainFactor } from "./twoLevelGainFactor";
  * @throws never.
  * @example gainAtSpeed({ ...defaultTransferConfig, gain: 6 }, 40) // 6
  */
-export function gainAtSpeed(config: TransferConfig, speed: number): number {
+export function gainAtSpeed(config: GainCurveParams, speed: number): number {
   switch (config.gainCurve) {
     case "constant":
       return config.gain;

@@ -2,4 +2,4 @@ export { twoLevelGainFactor } from "./twoLevelGainFactor";
 export { powerGainFactor } from "./powerGainFactor";
 export { speedAfterDeadBand } from "./deadBand";
 export { fineAimDirectWeight, exponentialSmoothingFactor } from "./fineAimSmoothing";
-export { gainAtSpeed } from "./gainAtSpeed";
+export { gainAtSpeed, type GainCurveParams } from "./gainAtSpeed";

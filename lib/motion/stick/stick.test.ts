@@ -37,7 +37,7 @@ describe("stick rate mapping", () => {
   });
 });
 
-describe("snap-turn stick", () => {
+describe("heading stick", () => {
   it("heading atan2(x, −y): up 0, right 90, left −90, down 180", () => {
     expect(stickHeadingDeg(0, -1)).toBeCloseTo(0, 12);
     expect(stickHeadingDeg(1, 0)).toBeCloseTo(90, 12);
@@ -46,7 +46,7 @@ describe("snap-turn stick", () => {
     expect(wrapAngleDeg(350)).toBe(-10);
     expect(wrapAngleDeg(-190)).toBe(170);
   });
-  const cfg = { technique: "motion+stick" as const, stickMode: "snap-turn" as const, snapTurnDurationMs: 100 };
+  const cfg = { technique: "motion+stick" as const, stickMode: "heading" as const, headingTurnTimeMs: 100 };
   const at = (t: number, x: number, y: number) => ({ tMs: t, gyroX: 0, gyroY: 0, gyroZ: 0, stickX: x, stickY: y });
   it("turns the view to the stick's heading, spread over the set time", () => {
     const e = createMotionEngine(cfg);
@@ -58,7 +58,7 @@ describe("snap-turn stick", () => {
     expect(sum).toBeCloseTo(90, 9);
   });
   it("turning the stick around the rim keeps turning the view by the same angle, across ±180", () => {
-    const e = createMotionEngine({ ...cfg, snapTurnDurationMs: 0 });
+    const e = createMotionEngine({ ...cfg, headingTurnTimeMs: 0 });
     e.push(at(0, 0, 0));
     let sum = e.push(at(10, 0, -1))!.dx; // forward: no turn
     for (let k = 1; k <= 36; k++) {

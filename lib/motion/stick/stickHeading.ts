@@ -1,9 +1,9 @@
 /**
  * Stick heading in degrees (stickHeadingDeg).
  *
- * Purpose: the snap-turn stick's angle relative to forward, atan2(x, −y): 0 = pushed up
+ * Purpose: the heading stick's angle relative to forward, atan2(x, −y): 0 = pushed up
  * (W3C Gamepad y is down positive), 90 = right, −90 = left, ±180 = down. Source: science.md §8
- * "Snap-turn stick"; W3C Gamepad standard mapping (axis signs). Cost: O(1).
+ * "Heading stick"; W3C Gamepad standard mapping (axis signs). Cost: O(1).
  * @throws never.
  * @example stickHeadingDeg(1, 0) // 90
  */
