@@ -5,11 +5,19 @@ export const techniques = ["motion", "stick", "motion+stick", "motion+touch", "m
 export type Technique = (typeof techniques)[number];
 
 /**
- * The engine's input channels, which the clutch can cover: `motion` (device rotation), `tilt`
- * (tilt-rate), `stick` (stick rate and heading stick) and `pointer` (mouse and touch).
+ * The engine's input channels: `motion` (device rotation), `tilt` (tilt-rate), `stick` (stick
+ * rate and heading stick) and `pointer` (mouse and touch).
  */
 export const inputChannels = ["motion", "tilt", "stick", "pointer"] as const;
 export type InputChannel = (typeof inputChannels)[number];
+
+/**
+ * What the clutch covers: `all` channels, or only the `device` channels (motion and tilt), so
+ * that with motion+stick or motion+touch the stick or the touch drag keeps working while the
+ * hand re-centres the device.
+ */
+export const clutchCoverages = { all: inputChannels, device: ["motion", "tilt"] } as const satisfies Record<string, readonly InputChannel[]>;
+export type ClutchCoverage = keyof typeof clutchCoverages;
 
 const button = z.number().int().min(0).max(31).nullable();
 const positive = z.number().finite().positive();
@@ -71,7 +79,7 @@ export const transferConfigSchema = z
 
     clutchButton: button.default(0),
     clutchMode: z.enum(["hold", "toggle"]).default("hold"),
-    clutchChannels: z.array(z.enum(inputChannels)).max(inputChannels.length).default([...inputChannels]),
+    clutchCovers: z.enum(["all", "device"]).default("all"),
     activation: z.enum(["always", "while-aiming"]).default("always"),
     aimButton: button.default(1),
     recenterButton: button.default(2),
@@ -88,11 +96,6 @@ export const transferConfigSchema = z
     }
     if (c.activation === "while-aiming" && c.aimButton === null) {
       ctx.addIssue({ code: "custom", path: ["aimButton"], message: "must be set when activation is while-aiming" });
-    }
-    const seen = new Set<string>();
-    for (const ch of c.clutchChannels) {
-      if (seen.has(ch)) ctx.addIssue({ code: "custom", path: ["clutchChannels"], message: `lists "${ch}" twice` });
-      seen.add(ch);
     }
     const used: Array<[string, number | null]> = [["clutchButton", c.clutchButton], ["aimButton", c.aimButton], ["recenterButton", c.recenterButton]];
     for (let i = 0; i < used.length; i++) {

@@ -1,6 +1,6 @@
 // The motion-aim engine without validation: only type imports of the configuration schema.
 // It composes the stages of ./stages (each a small function of its own state and the sample).
-import type { InputChannel, TransferConfig } from "./config";
+import { clutchCoverages, type InputChannel, type TransferConfig } from "./config";
 import type { Vec3 } from "./frames/gravityEstimate";
 import type { MotionSample } from "./sample";
 import { isValidSample } from "./sampleValidity";
@@ -101,7 +101,7 @@ export function usesChannel(technique: TransferConfig["technique"], channel: Inp
  * (clutch, activation, recenter) → bias → gravity reference → screen frame → reference frame →
  * dead band → gain curve → fine-aim smoothing (motion channel); the tilt-rate, stick (rate or
  * heading) and pointer channels by technique; display units; added latency. The clutch
- * suspends the channels `clutchChannels` names; recenter resets the tilt and gravity references
+ * suspends the channels `clutchCovers` names; recenter resets the tilt and gravity references
  * after the sample's output. Source: science.md §7–8 (W3C axes; Casiez & Roussel 2011 CD gain).
  * Cost: O(1) per sample, no allocation in `push`.
  * @throws never itself; a configuration that did not pass `parseTransferConfig` gives undefined
@@ -117,10 +117,11 @@ export function createMotionEngineFromValid(c: TransferConfig): MotionEngine {
   const deviceInput = motionChannel || tiltChannel;
   const needUp = tiltChannel || (motionChannel && c.frame !== "device");
   const cursor = c.displayMode === "cursor";
-  const clutchMotion = c.clutchChannels.includes("motion");
-  const clutchTilt = c.clutchChannels.includes("tilt");
-  const clutchStick = c.clutchChannels.includes("stick");
-  const clutchPointer = c.clutchChannels.includes("pointer");
+  const covered: readonly InputChannel[] = clutchCoverages[c.clutchCovers];
+  const clutchMotion = covered.includes("motion");
+  const clutchTilt = covered.includes("tilt");
+  const clutchStick = covered.includes("stick");
+  const clutchPointer = covered.includes("pointer");
   const verticalSign = c.invertVertical ? -1 : 1;
 
   const controlsP = controlsParams(c);

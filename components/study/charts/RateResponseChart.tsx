@@ -44,7 +44,7 @@ export function RateResponseChart({ conditions }: { conditions: { label: string;
           caption={<>Turning rate (view °/s) against the tilt from the starting hold (°), from the same stage. Shaded: the first condition&apos;s tilt dead zone.</>} />
       )}
       {heading.length > 0 && (
-        <p className="text-sm text-slate-700">Heading stick ({heading.map((h) => h.label).join(", ")}): pushed past {Math.round(heading[0]!.config.snapTurnThreshold * 100)} % of the way to the rim, the stick turns the view to its own direction within {heading[0]!.config.snapTurnDurationMs} ms; it has no rate curve to draw.</p>
+        <p className="text-sm text-slate-700">Heading stick ({heading.map((h) => h.label).join(", ")}): pushed past {Math.round(heading[0]!.config.headingRimThreshold * 100)} % of the way to the rim, the stick turns the view to its own direction within {heading[0]!.config.headingTurnTimeMs} ms; it has no rate curve to draw.</p>
       )}
     </>
   );

@@ -83,6 +83,12 @@ export const configFieldCatalogue: { [K in keyof TransferConfig]: ConfigFieldEnt
     help: "Time constant of the low-pass that finds 'up' from the accelerometer; longer is steadier but follows a change of hold more slowly.",
     relevant: (c) => (motionChannel(c) && c.frame !== "device") || tiltChannel(c),
   },
+  accelerometerInverted: {
+    group: "frame", label: "Accelerometer read inverted", unit: "", advanced: true,
+    setElsewhere: "Set in every session by the device check's gravity-sign test.",
+    help: "For devices whose accelerometer reports 'up' as 'down': readings are negated before use. Only replays of streams recorded without the check need it set here.",
+    relevant: (c) => (motionChannel(c) && c.frame !== "device") || tiltChannel(c),
+  },
   biasXDegPerS: bias("x"),
   biasYDegPerS: bias("y"),
   biasZDegPerS: bias("z"),
@@ -151,7 +157,7 @@ export const configFieldCatalogue: { [K in keyof TransferConfig]: ConfigFieldEnt
   stickMode: {
     group: "stick", label: "Stick mode", unit: "", relevant: stickChannel,
     help: "Rate: the stick's deflection sets a turning speed. Heading: pushing the stick to the rim turns the view to the stick's direction; motion gives the vertical.",
-    choices: { rate: "rate (deflection sets speed)", "snap-turn": "heading (direction sets heading)", heading: "heading (direction sets heading)" },
+    choices: { rate: "rate (deflection sets speed)", heading: "heading (direction sets heading)" },
   },
   stickDeadZone: {
     group: "stick", label: "Stick dead zone", unit: "of full deflection", relevant: rateStick,
@@ -169,11 +175,11 @@ export const configFieldCatalogue: { [K in keyof TransferConfig]: ConfigFieldEnt
     group: "stick", label: "Stick top rate", unit: "°/s", relevant: rateStick,
     help: "Turning speed at full deflection.",
   },
-  snapTurnThreshold: {
+  headingRimThreshold: {
     group: "stick", label: "Heading stick threshold", unit: "of full deflection", relevant: headingStick,
     help: "How far the stick must be pushed before its direction sets the heading.",
   },
-  snapTurnDurationMs: {
+  headingTurnTimeMs: {
     group: "stick", label: "Heading turn duration", unit: "ms", relevant: headingStick,
     help: "The turn to a new heading is spread over this time (0: at once).",
   },
@@ -211,6 +217,12 @@ export const configFieldCatalogue: { [K in keyof TransferConfig]: ConfigFieldEnt
     group: "controls", label: "Clutch behaviour", unit: "", relevant: (c) => motionChannel(c) && c.clutchButton !== null,
     help: "Hold: suspended while held. Toggle: each press switches.",
     choices: { hold: "hold", toggle: "toggle" },
+  },
+  clutchCovers: {
+    group: "controls", label: "Clutch suspends", unit: "", advanced: true,
+    relevant: (c) => c.clutchButton !== null && (motionChannel(c) || tiltChannel(c)) && (stickChannel(c) || pointerChannel(c)),
+    help: "Every input, or only device rotation and tilt (the stick or touch drag keeps working while the hand re-centres).",
+    choices: { all: "every input", device: "device rotation and tilt only" },
   },
   activation: {
     group: "controls", label: "Motion active", unit: "", relevant: motionChannel,
