@@ -1,4 +1,5 @@
 import type { MotionSample } from "../sample";
+import { accelDirections } from "./accelDirections";
 
 /** Which accelerometer axis is mirrored relative to the gyroscope's (null: none found). */
 export type MirroredAxis = "x" | "y" | "z";
@@ -37,27 +38,10 @@ const DEG = Math.PI / 180;
  * @example checkAccelGyroAxes(tiltingSamples).verdict // "agree"
  */
 export function checkAccelGyroAxes(samples: readonly MotionSample[], smoothingSamples = 5): AccelGyroAxesCheck {
-  const withAccel = samples.filter((s) => s.accelX !== undefined && s.accelY !== undefined && s.accelZ !== undefined);
+  const { readings: withAccel, directions: dir } = accelDirections(samples, smoothingSamples);
   const none = { asIs: NaN, x: NaN, y: NaN, z: NaN };
   if (withAccel.length < smoothingSamples * 4) {
     return { verdict: "cannot-tell", scores: none, mirroredAxis: null, tiltTravelDeg: 0, message: "This device gave no accelerometer readings to compare with its gyroscope." };
-  }
-  // moving average of the accelerometer direction against noise and hand tremor
-  const dir: [number, number, number][] = [];
-  let sx = 0, sy = 0, sz = 0;
-  for (let i = 0; i < withAccel.length; i++) {
-    const s = withAccel[i] as MotionSample;
-    sx += s.accelX as number;
-    sy += s.accelY as number;
-    sz += s.accelZ as number;
-    if (i >= smoothingSamples) {
-      const o = withAccel[i - smoothingSamples] as MotionSample;
-      sx -= o.accelX as number;
-      sy -= o.accelY as number;
-      sz -= o.accelZ as number;
-    }
-    const n = Math.hypot(sx, sy, sz) || 1;
-    dir.push([sx / n, sy / n, sz / n]);
   }
   // sums for the cosine similarity of measured and predicted changes, per mirroring; changes are
   // compared over `span` steps, where the turn outweighs the sensor noise

@@ -1,4 +1,5 @@
 import type { MotionSample } from "../sample";
+import { accelDirections } from "./accelDirections";
 
 /** Verdict of {@link checkGyroUnits}. */
 export interface GyroUnitCheck {
@@ -28,26 +29,9 @@ const RAD = 180 / Math.PI;
  * @example checkGyroUnits(tiltingDeviceSamples).verdict // "deg/s"
  */
 export function checkGyroUnits(samples: readonly MotionSample[], smoothingSamples = 5): GyroUnitCheck {
-  const withAccel = samples.filter((s) => s.accelX !== undefined && s.accelY !== undefined && s.accelZ !== undefined);
+  const { readings: withAccel, directions: dir } = accelDirections(samples, smoothingSamples);
   if (withAccel.length < smoothingSamples * 4) {
     return { verdict: "unknown", ratio: NaN, tiltTravelDeg: 0, reason: "no accelerometer data to compare with" };
-  }
-  // moving average of the accelerometer direction against noise
-  const dir: Array<[number, number, number]> = [];
-  let sx = 0, sy = 0, sz = 0;
-  for (let i = 0; i < withAccel.length; i++) {
-    const s = withAccel[i] as MotionSample;
-    sx += s.accelX as number;
-    sy += s.accelY as number;
-    sz += s.accelZ as number;
-    if (i >= smoothingSamples) {
-      const o = withAccel[i - smoothingSamples] as MotionSample;
-      sx -= o.accelX as number;
-      sy -= o.accelY as number;
-      sz -= o.accelZ as number;
-    }
-    const n = Math.hypot(sx, sy, sz) || 1;
-    dir.push([sx / n, sy / n, sz / n]);
   }
   let accelTravel = 0, gyroTravel = 0;
   for (let i = smoothingSamples; i < withAccel.length; i++) {
