@@ -20,7 +20,7 @@ async function collect(provider: InputProvider, ms: number): Promise<MotionSampl
   return got;
 }
 
-export function DeviceStep(props: { techniques: Technique[]; minRateHz: number; provider: () => Promise<InputProvider>; onDone: (r: DeviceRequest) => Promise<void> }) {
+export function DeviceStep(props: { techniques: Technique[]; minRateHz: number; provider: () => Promise<InputProvider>; screenedReturn?: string | null; onDone: (r: DeviceRequest) => Promise<void> }) {
   const [state, setState] = useState<"idle" | "measuring" | "refused">("idle");
   const [message, setMessage] = useState<string | null>(null);
   const motion = props.techniques.some(needsMotion);
@@ -65,6 +65,9 @@ export function DeviceStep(props: { techniques: Technique[]; minRateHz: number; 
       <button type="button" className="btn w-full sm:w-auto" disabled={state === "measuring"} onClick={() => void check()}>
         {state === "measuring" ? "Checking… hold the device still" : state === "refused" ? "Check again" : "Check my device"}
       </button>
+      {state === "refused" && props.screenedReturn && (
+        <p>If this device cannot take part, you can <a href={props.screenedReturn} data-testid="screened-return">return to the recruitment site</a>; thank you for your time.</p>
+      )}
     </section>
   );
 }

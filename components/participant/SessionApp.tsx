@@ -37,6 +37,8 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
   const [withdrawing, setWithdrawing] = useState(false);
   const [withdrawn, setWithdrawn] = useState(initial.status === "withdrawn");
   const [code, setCode] = useState<string | null>(initial.completionCode);
+  const [returnUrl, setReturnUrl] = useState<string | null>(initial.returnTo?.complete ?? null);
+  const [full, setFull] = useState(false);
   const [calibration, setCalibration] = useState(initial.calibration);
   const storeRef = useRef<SessionStore | null>(null);
   const uploaderRef = useRef<Uploader | null>(null);
@@ -109,6 +111,7 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
         return false;
       }
       if (!res.ok) {
+        if (res.status === 409) setFull(((await res.clone().json().catch(() => null)) as { error?: { code?: string } } | null)?.error?.code === "full");
         setError(await errorMessage(res));
         return false;
       }
@@ -156,7 +159,11 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
     if (progress.stage !== "complete" || code || withdrawn || upload.pending > 0 || upload.refused > 0 || !ready) return;
     void (async () => {
       const res = await postSession(token, "complete", {}).catch(() => null);
-      if (res?.ok) setCode(((await res.json()) as { completionCode: string }).completionCode);
+      if (res?.ok) {
+        const done = (await res.json()) as { completionCode: string; returnUrl?: string | null };
+        setCode(done.completionCode);
+        setReturnUrl(done.returnUrl ?? null);
+      }
       else if (res) setError(await errorMessage(res));
     })();
   }, [progress.stage, code, withdrawn, upload.pending, upload.refused, ready, token]);
@@ -174,16 +181,19 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
       <main className="mx-auto max-w-xl space-y-3 p-4">
         <h1 className="text-xl font-semibold">You have withdrawn</h1>
         <p>Thank you for your time. No further data is recorded from this session{design.eraseOnWithdrawal ? ", and what was recorded so far has been erased" : ""}.</p>
+        <p className="text-sm">Your participant code: <span className="font-mono" data-testid="participant-code">{st.participantCode}</span></p>
       </main>
     );
   }
-  if (!ready) return <main className="p-4"><p>Loading your session…</p></main>;
+  if (!ready) return <main className="p-4"><p>Loading your session…</p><p className="text-sm">Your participant code: <span className="font-mono">{st.participantCode}</span></p></main>;
 
   const fraction = progressFraction(progress, plan);
   const measured = plan.filter((s) => !s.practice).length;
   const header = (
     <header className="flex flex-wrap items-center gap-2 border-b border-slate-300 px-3 py-2 text-sm">
+      {st.pilot && <p role="note" data-testid="pilot-banner" className="w-full rounded bg-amber-200 px-2 py-1 font-semibold text-amber-950">Pilot run: the team trying the session. It takes no place and stays out of the results unless the team includes it.</p>}
       <span className="font-semibold">{st.study.title}</span>
+      <span>Your code: <span className="font-mono" data-testid="participant-code">{st.participantCode}</span></span>
       <div className="flex min-w-[8rem] flex-1 items-center gap-2">
         <progress className="h-2 flex-1" max={1} value={fraction} aria-label="Progress" />
         <span data-testid="progress-text">{Math.round(fraction * 100)} % done</span>
@@ -191,13 +201,13 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
       <span data-testid="upload-status" aria-live="polite">
         {upload.refused > 0 ? `${upload.refused} round(s) refused by the server` : upload.pending > 0 ? (upload.waiting ? `${upload.pending} round(s) kept on this device, sending when the connection returns` : `sending ${upload.pending} round(s)…`) : "all data sent"}
       </span>
-      {progress.stage !== "complete" && <button type="button" className="btn-secondary" onClick={() => setWithdrawing(true)}>Stop and withdraw</button>}
+      <button type="button" className="btn-secondary" onClick={() => setWithdrawing(true)}>{progress.stage === "complete" ? "Withdraw" : "Stop and withdraw"}</button>
     </header>
   );
   const confirm = withdrawing && (
     <div role="dialog" aria-modal="true" aria-labelledby="withdraw-title" className="card m-3 space-y-2">
       <h2 id="withdraw-title" className="font-semibold">Stop and withdraw?</h2>
-      <p>No further data will be recorded. {design.eraseOnWithdrawal ? "What was recorded so far will be erased." : "What was recorded so far is kept, as the consent document explains."}</p>
+      <p>{progress.stage === "complete" ? "You have finished, and you may still withdraw." : "No further data will be recorded."} {design.eraseOnWithdrawal ? "What was recorded will be erased." : "What was recorded is kept, as the consent document explains."}</p>
       <div className="flex gap-2">
         <button type="button" className="btn" onClick={() => void withdraw()}>Withdraw</button>
         <button type="button" className="btn-secondary" onClick={() => setWithdrawing(false)}>Keep going</button>
@@ -220,9 +230,10 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
           }
         }} />
       ) : <p className="notice">This study cannot take part yet: its consent document is not approved.</p>;
+      if (full && st.returnTo?.screened) body = <>{body}<p><a className="btn inline-block" href={st.returnTo.screened} data-testid="screened-return">Return to the recruitment site</a></p></>;
       break;
     case "device":
-      body = <DeviceStep techniques={techniques} minRateHz={design.minSampleRateHz} provider={getProvider} onDone={async (r: DeviceRequest) => {
+      body = <DeviceStep techniques={techniques} minRateHz={design.minSampleRateHz} provider={getProvider} screenedReturn={st.returnTo?.screened ?? null} onDone={async (r: DeviceRequest) => {
         if (await send("device", r)) if (r.verdict === "ok") next();
       }} />;
       break;
@@ -237,7 +248,12 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
         onDone={next} />;
       break;
     case "instructions":
-      body = <InstructionsStep selection={design.task.selection} displayMode={design.task.displayMode} pointer={!motion} onNext={next} />;
+      // the first task sequence starts: take a counterbalancing place and its condition order
+      body = <InstructionsStep selection={design.task.selection} displayMode={design.task.displayMode} pointer={!motion} onNext={async () => {
+        if (!(await send("start", {}))) return;
+        await refresh();
+        persist({ ...progress, stage: "task" });
+      }} />;
       break;
     case "break":
       body = <BreakStep key={step.index} seconds={step.seconds} onNext={next} />;
@@ -271,6 +287,7 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
           <p>Your completion code:</p>
           <p className="text-2xl font-mono font-semibold" data-testid="completion-code">{code}</p>
           <p>Copy it into the recruitment site if it asks for one.</p>
+          {returnUrl && <p><a className="btn inline-block" href={returnUrl} data-testid="complete-return">Return to the recruitment site</a></p>}
         </section>
       ) : (
         <section className="space-y-3">

@@ -13,6 +13,17 @@ import { fetchJson, type ResultsResponse } from "./ResultsTypes";
 import { ExclusionControls, type ExclusionChoice } from "./ExclusionControls";
 import { AnovaTable, BetweenGroupsTable, ConditionTable, GroupConditionTable, PosthocTable } from "./StatsTables";
 import { IntervalBarChart } from "./ThroughputChart";
+import type { ResultsView } from "@/lib/results";
+
+/** Participants (with data or not) by the protocol version they ran, e.g. "version 1: 4 (P-…, P-…), version 2: 2 (…)". */
+function versionCounts(participants: ResultsView["participants"]): string {
+  const by = new Map<string, string[]>();
+  for (const p of participants) {
+    const k = p.protocolVersion ? `version ${p.protocolVersion}` : "no version recorded";
+    by.set(k, [...(by.get(k) ?? []), p.code]);
+  }
+  return [...by.entries()].sort().map(([k, codes]) => `${k}: ${codes.length} (${codes.join(", ")})`).join("; ") || "none yet";
+}
 
 /** The results page: fetched on the client and refreshed every 15 s while data arrive. */
 export function ResultsDashboard({ studyId }: { studyId: number }) {
@@ -80,6 +91,11 @@ export function ResultsDashboard({ studyId }: { studyId: number }) {
               <li>{view.exclusions.sequencesDropped.length} sequence(s) left out of every summary{view.exclusions.sequencesDropped.length ? `: ${[...new Set(view.exclusions.sequencesDropped.map((d) => d.reason))].join("; ")}` : ""}.</li>
               <li>{view.exclusions.missing?.participantsExcluded ?? 0} participant(s) left out of every test for lacking a condition{view.exclusions.missing && view.exclusions.missing.participants.length > 0 ? `: ${view.exclusions.missing.participants.map((p) => `${p.participant} (${p.reason})`).join(", ")}` : ""}.</li>
               <li>{view.exclusions.withdrawn.length} withdrawn participant(s) left out entirely{view.exclusions.withdrawn.length ? `: ${view.exclusions.withdrawn.join(", ")}` : ""}.</li>
+              <li data-testid="researcher-exclusions">{(view.exclusions.byResearcher ?? []).filter((e) => e.scope === "participant").length} participant(s) and {(view.exclusions.byResearcher ?? []).filter((e) => e.scope === "sequence").length} sequence(s) excluded by the team{(view.exclusions.byResearcher ?? []).length ? ": " : "."}
+                {(view.exclusions.byResearcher ?? []).length > 0 && <ul className="list-[circle] pl-5">{view.exclusions.byResearcher.map((e, i) => <li key={i}>{e.participant}{e.scope === "sequence" ? `, ${e.condition}, block ${e.block}, sequence ${e.sequence}` : ""}: {e.reason} ({e.movements} movements)</li>)}</ul>}
+              </li>
+              <li data-testid="protocol-versions">By protocol version: {versionCounts(view.participants)}.</li>
+              {(view.exclusions.pilotsIncluded ?? []).length > 0 && <li data-testid="pilots-included">{view.exclusions.pilotsIncluded.length} pilot or simulated participant(s) included by the team: {view.exclusions.pilotsIncluded.join(", ")}.</li>}
               {a.notes.map((n) => <li key={n}>{n}</li>)}
               <li>Values that cannot be computed: {a.rule}</li>
             </ul>

@@ -59,8 +59,8 @@ export function DesignForm({ studyId, initial, readOnly }: { studyId: number; in
   const onSubmit = handleSubmit(async (design) => {
     setSaved(null);
     try {
-      const r = await apiSend<{ designHash: string; backToDraft: boolean }>("PUT", `/api/studies/${studyId}/design`, withTaskDisplayMode(design));
-      setSaved(r.backToDraft ? "Design saved. It changed after approval, so the study is a draft again and needs a new review." : "Design saved.");
+      const r = await apiSend<{ designHash: string; amendment: boolean }>("PUT", `/api/studies/${studyId}/design`, withTaskDisplayMode(design));
+      setSaved(r.amendment ? "Design saved as part of an amendment: participants keep the approved version until a reviewer approves the change." : "Design saved.");
       router.refresh();
     } catch (e) {
       if (e instanceof ApiError && e.issues.length) for (const i of e.issues) setError((i.path || "root") as "root", { message: i.message });

@@ -2,6 +2,7 @@
 
 import Link from "next/link";
 import { useMemo, useState } from "react";
+import { SortableHead } from "@/components/ui/SortableHead";
 import { createColumnHelper, flexRender, getCoreRowModel, getFilteredRowModel, getSortedRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
 
 export type StudyTableRow = { id: number; title: string; status: string; statusLabel: string; protocolNumber: string | null; ownerName: string; myRole: string | null; updated: string };
@@ -24,10 +25,14 @@ export function StudiesTable({ rows }: { rows: StudyTableRow[] }) {
     ],
     [],
   );
+  const columnFilters = useMemo(() => (status ? [{ id: "status", value: status }] : []), [status]);
   const table = useReactTable({
     data: rows,
     columns,
-    state: { sorting, globalFilter: text, columnFilters: status ? [{ id: "status", value: status }] : [] },
+    // one filter array per status value: a new array on every render would make the filtered rows "change" on
+    // every render, and TanStack Table's page-index reset would then re-render without end (a frozen page)
+    state: { sorting, globalFilter: text, columnFilters },
+    autoResetPageIndex: false,
     onSortingChange: setSorting,
     getCoreRowModel: getCoreRowModel(),
     getSortedRowModel: getSortedRowModel(),
@@ -46,22 +51,7 @@ export function StudiesTable({ rows }: { rows: StudyTableRow[] }) {
       </div>
       <div className="card overflow-x-auto p-0">
         <table>
-          <thead>
-            {table.getHeaderGroups().map((g) => (
-              <tr key={g.id}>
-                {g.headers.map((h) => {
-                  const dir = h.column.getIsSorted();
-                  return (
-                    <th key={h.id} aria-sort={dir === "asc" ? "ascending" : dir === "desc" ? "descending" : "none"}>
-                      <button type="button" className="font-semibold" onClick={h.column.getToggleSortingHandler()}>
-                        {flexRender(h.column.columnDef.header, h.getContext())} {dir === "asc" ? "(ascending)" : dir === "desc" ? "(descending)" : ""}
-                      </button>
-                    </th>
-                  );
-                })}
-              </tr>
-            ))}
-          </thead>
+          <SortableHead table={table} />
           <tbody>
             {table.getRowModel().rows.map((r) => (
               <tr key={r.id}>{r.getVisibleCells().map((c) => <td key={c.id}>{flexRender(c.column.columnDef.cell, c.getContext())}</td>)}</tr>

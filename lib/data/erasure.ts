@@ -27,6 +27,7 @@ export const PARTICIPANT_TABLES: readonly { table: string; onErase: EraseAction;
   { table: "participant_contacts", onErase: "delete", holds: "the encrypted e-mail address" },
   { table: "outgoing_mail", onErase: "delete", holds: "the log of mail sent to the participant (no addresses)" },
   { table: "export_participants", onErase: "delete", holds: "which archives held the participant (those archives are superseded first)" },
+  { table: "exclusions", onErase: "delete", holds: "the team's exclusions of the participant's data, with their reasons" },
   {
     table: "consent_records",
     onErase: "strip",
@@ -53,6 +54,10 @@ export const PARTICIPANT_COLUMNS: Readonly<Record<string, ColumnFate>> = {
   created_at: "day",
   condition_order: "clear", between_levels: "clear", completion_code: "clear", progress: "clear", device: "clear",
   consented_at: "clear", started_at: "clear", completed_at: "clear", last_activity_at: "clear", withdrawal_reason: "clear",
+  // lifecycle: kind, inclusion, protocol version and place describe the study's bookkeeping, not the person;
+  // a pilot's design copy, the place's release, a revocation and the panel id (and its keyed hash) go
+  kind: "keep", included: "keep", protocol_version_id: "keep", cb_slot: "keep",
+  pilot_design: "clear", cb_released_at: "clear", cb_release_reason: "clear", revoked_at: "clear", panel_id_encrypted: "clear", panel_id_hmac: "clear",
 };
 
 /** The consent record's columns on erasure (see PARTICIPANT_TABLES). */

@@ -5,7 +5,8 @@ import type { Knex } from "knex";
 import type { Queryable } from "@/lib/db";
 import { appendAudit } from "@/lib/data/audit";
 import { exportsRoot, studyExportDir } from "@/lib/data/exportFiles";
-import { fetchStudyDesign, TRIAL_RECORD_COLUMNS } from "@/lib/data/results";
+import { listExclusions } from "@/lib/data/exclusions";
+import { fetchStudyDesign, TRIAL_RECORD_COLUMNS, whereInAnalysis, whereNotExcluded } from "@/lib/data/results";
 import {
   exportOptionsSchema, randomPseudonyms, stablePseudonym, writeArchive,
   type ArchiveSource, type ExportAnswer, type ExportOptions, type ExportParticipant, type ExportStream,
@@ -108,13 +109,16 @@ export async function databaseArchiveSource(db: Knex, studyId: number): Promise<
   const study = await db("studies").where({ id: studyId }).first<{ id: number; title: string; created_at: Date }>("id", "title", "created_at");
   const design = await fetchStudyDesign(db, studyId);
   if (!study || !design) throw new Error("databaseArchiveSource requires a study with a design");
-  const people = await db("participants")
-    .where({ study_id: studyId })
-    .whereNotIn("status", ["invited", "withdrawn"])
-    .orderBy("id")
-    .select<{ id: number; status: string; cb_row: number | null; condition_order: unknown; between_levels: unknown; started_at: Date | null; completed_at: Date | null }[]>(
-      "id", "status", "cb_row", "condition_order", "between_levels", "started_at", "completed_at",
+  // real participants and the pilots the team included; never the invited, the withdrawn or other pilots
+  const people = await whereInAnalysis(db("participants as p").where("p.study_id", studyId))
+    .leftJoin("study_reviews as v", "v.id", "p.protocol_version_id")
+    .whereNotIn("p.status", ["invited", "withdrawn"])
+    .orderBy("p.id")
+    .select<{ id: number; status: string; cb_row: number | null; condition_order: unknown; between_levels: unknown; started_at: Date | null; completed_at: Date | null; version: number | null }[]>(
+      "p.id", "p.status", "p.cb_row", "p.condition_order", "p.between_levels", "p.started_at", "p.completed_at", "v.version as version",
     );
+  const exclusions = (await listExclusions(db, studyId)).filter((e) => people.some((p) => p.id === e.participantId));
+  const excludedPeople = new Set(exclusions.filter((e) => e.scope === "participant").map((e) => e.participantId));
   const ids = people.map((p) => p.id);
   const finals = ids.length
     ? await db("questionnaire_answers").whereIn("participant_id", ids).andWhere({ condition: "" }).select<{ participant_id: number; item_id: string; value_int: number | null; value_text: string | null }[]>("participant_id", "item_id", "value_int", "value_text")
@@ -125,6 +129,7 @@ export async function databaseArchiveSource(db: Knex, studyId: number): Promise<
     betweenLevels: (parseJson(p.between_levels) as Record<string, string> | null) ?? {},
     startedAt: p.started_at, completedAt: p.completed_at,
     final: Object.fromEntries(finals.filter((f) => f.participant_id === p.id).map((f) => [f.item_id, f.value_text ?? f.value_int])),
+    protocolVersion: p.version, excluded: excludedPeople.has(p.id),
   }));
   const consentVersions = await db("consent_versions").where({ study_id: studyId }).whereIn("status", ["submitted", "approved"]).orderBy("version")
     .select<{ version: number; sha256: string | null; status: string; body_md: string }[]>("version", "sha256", "status", "body_md");
@@ -135,12 +140,14 @@ export async function databaseArchiveSource(db: Knex, studyId: number): Promise<
     study: { id: study.id, title: study.title, design, createdAt: study.created_at },
     consentVersions: consentVersions.map((v) => ({ version: v.version, sha256: v.sha256, status: v.status, bodyMd: v.body_md })),
     participants,
+    exclusions: exclusions.map((e) => ({ participantId: e.participantId, scope: e.scope, condition: e.condition, block: e.block, sequence: e.sequence, reason: e.reason, movements: e.movements })),
     counts: { trials: await countOf("trials", { practice: false }), streams: await countOf("sequence_streams") },
     async *trials(): AsyncIterable<TrialRecord> {
       if (ids.length === 0) return;
       let last = 0;
       for (;;) {
-        const rows = (await db("trials").whereIn("participant_id", ids).andWhere("practice", false).andWhere("id", ">", last).orderBy("id").limit(page).select("id", ...TRIAL_RECORD_COLUMNS)) as (TrialRecord & { id: number })[];
+        // the team's exclusions are honoured here: excluded participants' and sequences' movements never reach the archive
+        const rows = (await whereNotExcluded(db("trials as t").whereIn("t.participant_id", ids).andWhere("t.practice", false).andWhere("t.id", ">", last)).orderBy("t.id").limit(page).select("t.id", ...TRIAL_RECORD_COLUMNS.map((c) => `t.${c}`))) as (TrialRecord & { id: number })[];
         for (const r of rows) yield r;
         if (rows.length < page) return;
         last = Number(rows.at(-1)!.id);
@@ -154,8 +161,8 @@ export async function databaseArchiveSource(db: Knex, studyId: number): Promise<
     },
     async *streams(): AsyncIterable<ExportStream> {
       if (ids.length === 0) return;
-      const metas = await db("sequence_streams").whereIn("participant_id", ids).orderBy("id")
-        .select<{ id: number; participant_id: number; condition: string; condition_index: number; block: number; sequence: number; practice: number | boolean }[]>("id", "participant_id", "condition", "condition_index", "block", "sequence", "practice");
+      const metas = await whereNotExcluded(db("sequence_streams as t").whereIn("t.participant_id", ids)).orderBy("t.id")
+        .select<{ id: number; participant_id: number; condition: string; condition_index: number; block: number; sequence: number; practice: number | boolean }[]>("t.id", "t.participant_id", "t.condition", "t.condition_index", "t.block", "t.sequence", "t.practice");
       for (const m of metas) {
         yield {
           participantId: m.participant_id, condition: m.condition, conditionIndex: m.condition_index, block: m.block, sequence: m.sequence, practice: Boolean(m.practice),

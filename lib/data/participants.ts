@@ -1,15 +1,16 @@
 import type { Knex } from "knex";
 import type { Queryable } from "@/lib/db";
-import { conflict, notFound, unprocessable } from "@/lib/errors";
+import { AppError, conflict, notFound, unprocessable } from "@/lib/errors";
 import { hashToken } from "@/lib/auth/tokens";
 import { sha256Text } from "@/lib/consent/sha256Text";
 import { appendAudit } from "@/lib/data/audit";
 import { eraseParticipantWithin } from "@/lib/data/erasure";
 import { deleteExportFiles } from "@/lib/data/exportFiles";
-import { sealWithDataKey } from "@/lib/recruitment/dataKey";
 import { lockActiveParticipant, refusalFor, withdrawnError, ACTIVE_STATUSES } from "@/lib/data/participantLock";
+import { assertCapRoom } from "@/lib/data/places";
+import { openWithDataKey, sealWithDataKey } from "@/lib/recruitment/dataKey";
+import { returnAddress } from "@/lib/recruitment/returnAddress";
 import { studyDesignSchema, conditionConfig, conditionsOf, type StudyDesign } from "@/lib/study/design";
-import { betweenLevelsFor, orderForParticipant } from "@/lib/study/counterbalance";
 import {
   deviceSummary, initialProgress, planSeedFor, planSession, progressSchema, qualityFlags, requiredStatementIds, uploadKey,
   type CalibrationRequest, type ConsentRequest, type DeviceRequest, type PlannedSequence, type Progress,
@@ -36,13 +37,29 @@ export type ParticipantRow = {
   completed_at: Date | null;
   withdrawn_at: Date | null;
   last_activity_at: Date | null;
+  kind: "real" | "pilot" | "simulated";
+  included: number | boolean;
+  pilot_design: unknown;
+  protocol_version_id: number | null;
+  cb_slot: number | null;
+  cb_released_at: Date | null;
+  cb_release_reason: "device" | "withdrawn" | "inactive" | null;
+  revoked_at: Date | null;
+  panel_id_encrypted: string | null;
+  panel_id_hmac: string | null;
 };
 
-/** A participant's session as the server sees it: the row, the study and its parsed design. */
+/**
+ * A participant's session as the server sees it: the row, the study and the design it runs. A real
+ * participant runs the protocol version they consented under (before consent: the version in
+ * force), with that version's title and information; a pilot runs the working copy it began with.
+ */
 export type SessionContext = {
   participant: ParticipantRow;
   study: { id: number; title: string; summary: string; status: string };
   design: StudyDesign;
+  /** The protocol version (study_reviews row) the session runs, or null (a pilot, or a study from before versions). */
+  protocolVersion: { id: number; version: number; consentVersionId: number } | null;
 };
 
 export { withdrawnError } from "@/lib/data/participantLock";
@@ -61,17 +78,31 @@ export function jsonColumn(value: unknown): unknown {
 
 /**
  * The session a link token opens, or undefined for an unknown or malformed token.
- * Only the token's SHA-256 is compared; the token itself is never stored.
+ * Only the token's SHA-256 is compared; the token itself is never stored. One query: the
+ * participant, the study, and the protocol version the session runs (the participant's own, else
+ * the newest approved one).
  */
 export async function fetchSessionByToken(q: Queryable, token: string): Promise<SessionContext | undefined> {
   if (!TOKEN_SHAPE.test(token)) return undefined;
   const row = await q("participants as p")
     .join("studies as s", "s.id", "p.study_id")
+    .leftJoin("study_reviews as v", "v.id", q.raw("COALESCE(p.protocol_version_id, (SELECT r.id FROM study_reviews r WHERE r.study_id = p.study_id AND r.status = 'approved' ORDER BY r.id DESC LIMIT 1))"))
     .where("p.token_hash", hashToken(token))
-    .first<(ParticipantRow & { s_title: string; s_summary: string; s_status: string; s_design: unknown }) | undefined>("p.*", "s.title as s_title", "s.summary as s_summary", "s.status as s_status", "s.design as s_design");
+    .first<(ParticipantRow & { s_title: string; s_summary: string; s_status: string; s_design: unknown; v_id: number | null; v_version: number | null; v_consent: number | null; v_title: string | null; v_summary: string | null; v_design: unknown }) | undefined>(
+      "p.*", "s.title as s_title", "s.summary as s_summary", "s.status as s_status", "s.design as s_design",
+      "v.id as v_id", "v.version as v_version", "v.consent_version_id as v_consent", "v.title as v_title", "v.summary as v_summary", "v.design as v_design",
+    );
   if (!row) return undefined;
-  const { s_title, s_summary, s_status, s_design, ...participant } = row;
-  return { participant, study: { id: participant.study_id, title: s_title, summary: s_summary, status: s_status }, design: parseDesignCached(s_design) };
+  const { s_title, s_summary, s_status, s_design, v_id, v_version, v_consent, v_title, v_summary, v_design, ...participant } = row;
+  const real = participant.kind === "real";
+  const version = real && v_id !== null ? { id: v_id, version: v_version ?? 0, consentVersionId: v_consent! } : null;
+  const design = !real ? participant.pilot_design ?? s_design : version && v_design !== null ? v_design : s_design;
+  return {
+    participant,
+    study: { id: participant.study_id, title: (version && v_title) || s_title, summary: version && v_summary !== null ? v_summary : s_summary, status: s_status },
+    design: parseDesignCached(design),
+    protocolVersion: version,
+  };
 }
 
 const designCache = new Map<string, StudyDesign>();
@@ -88,10 +119,14 @@ function parseDesignCached(raw: unknown): StudyDesign {
   return parsed.data;
 }
 
-/** Like {@link fetchSessionByToken}, but a missing session is a 404. */
+/** The answer to a link whose invitation the team revoked before it was used. */
+export const revokedError = () => new AppError(410, "revoked", "This invitation was withdrawn by the research team; the link no longer opens a session.");
+
+/** Like {@link fetchSessionByToken}, but a missing session is a 404 and a revoked invitation a 410. */
 export async function requireSession(q: Queryable, token: string): Promise<SessionContext> {
   const ctx = await fetchSessionByToken(q, token);
   if (!ctx) throw notFound("No session for this link.");
+  if (ctx.participant.revoked_at) throw revokedError();
   return ctx;
 }
 
@@ -132,6 +167,20 @@ export async function fetchApprovedConsent(q: Queryable, studyId: number): Promi
   return q<ConsentVersionRow>("consent_versions").where({ study_id: studyId, status: "approved" }).whereNotNull("sha256").orderBy("version", "desc").first();
 }
 
+/**
+ * The consent text a session shows and records: the protocol version's own (so a participant keeps
+ * the version they consented to); for a study from before versions, the newest approved one; for a
+ * pilot, the newest version whatever its status (a draft can be piloted), hashed as it reads now.
+ */
+export async function consentForSession(q: Queryable, ctx: SessionContext): Promise<ConsentVersionRow | undefined> {
+  if (ctx.participant.kind !== "real") {
+    const newest = await q<ConsentVersionRow>("consent_versions").where({ study_id: ctx.study.id }).orderBy("version", "desc").first();
+    return newest ? { ...newest, sha256: newest.sha256 ?? sha256Text(newest.body_md) } : undefined;
+  }
+  if (ctx.protocolVersion) return q<ConsentVersionRow>("consent_versions").where({ id: ctx.protocolVersion.consentVersionId }).whereNotNull("sha256").first();
+  return fetchApprovedConsent(q, ctx.study.id);
+}
+
 const configCache = new WeakMap<StudyDesign, Pick<SessionState, "conditions" | "configs">>();
 
 /** The design's condition labels and merged, validated configurations (once per parsed design). */
@@ -147,7 +196,7 @@ function conditionsAndConfigs(design: StudyDesign): Pick<SessionState, "conditio
 /** Everything the runner needs for this session (GET /api/session/[token]); nothing of other sessions. */
 export async function fetchSessionState(q: Queryable, ctx: SessionContext): Promise<SessionState> {
   const p = ctx.participant;
-  const consent = await fetchApprovedConsent(q, ctx.study.id);
+  const consent = await consentForSession(q, ctx);
   const cal = await q("calibrations").where({ participant_id: p.id }).orderBy("id", "asc").select<{ kind: string; result: unknown }[]>("kind", "result");
   const calibration: SessionState["calibration"] = { pixelsPerMm: null, viewingDistanceMm: null, bias: null };
   for (const c of cal) {
@@ -172,6 +221,24 @@ export async function fetchSessionState(q: Queryable, ctx: SessionContext): Prom
     calibration,
     uploaded,
     completionCode: p.status === "completed" ? p.completion_code : null,
+    participantCode: p.code,
+    pilot: p.kind !== "real",
+    returnTo: await returnAddressesFor(q, ctx),
+  };
+}
+
+/**
+ * The session's return addresses (returnAddressesFor): the study's, with the completion code (once
+ * completed) and the panel's participant id filled in; pilots get none (they are not from a panel).
+ */
+export async function returnAddressesFor(q: Queryable, ctx: SessionContext): Promise<{ complete: string | null; screened: string | null }> {
+  if (ctx.participant.kind !== "real") return { complete: null, screened: null };
+  const s = await q("studies").where({ id: ctx.study.id }).first<{ return_url_complete: string | null; return_url_screened: string | null } | undefined>("return_url_complete", "return_url_screened");
+  const panelId = ctx.participant.panel_id_encrypted ? openWithDataKey(ctx.participant.panel_id_encrypted) : null;
+  const code = ctx.participant.status === "completed" ? ctx.participant.completion_code : null;
+  return {
+    complete: code ? returnAddress(s?.return_url_complete ?? null, { code, panelId }) : null,
+    screened: returnAddress(s?.return_url_screened ?? null, { panelId }),
   };
 }
 
@@ -191,18 +258,22 @@ export function assertConsented(ctx: SessionContext): void {
 }
 
 /**
- * Records consent: checks the version is the approved one (by id and hash) and that its stored
- * text still hashes to that value, every required statement is ticked and the typed name is there
- * when the study asks for it; stores the record with server time and a coarse device summary;
- * assigns the counterbalanced condition order (the participant's index = how many consented
- * before, under a lock on the study row) and the between-subject levels (the same index, in
- * rotation); audit-logs it in the same transaction. Returns the order's labels.
+ * Records consent: checks the version is the session's own (by id and hash; a real participant's
+ * is the protocol version in force, a pilot's the newest text) and that its stored text still
+ * hashes to that value, every required statement is ticked and the typed name is there when the
+ * study asks for it; stores the record with server time, a coarse device summary and the
+ * protocol version, which the participant keeps; audit-logs it in the same transaction. The cap
+ * (completed and active participants) is checked under the study row's lock. The condition order
+ * is not assigned here: a place is taken when the first task sequence starts (lib/data/places.ts).
+ * A pilot leaves no consent record (it is a team member trying the session) and needs no
+ * recruiting study.
  */
-export async function recordConsent(db: Knex, ctx: SessionContext, input: ConsentRequest, userAgent: string | null): Promise<{ signedAt: Date; version: number; body: string; hash: string; order: string[] }> {
+export async function recordConsent(db: Knex, ctx: SessionContext, input: ConsentRequest, userAgent: string | null): Promise<{ signedAt: Date; version: number; body: string; hash: string; order: null }> {
   assertWritable(ctx);
   if (ctx.participant.status !== "invited") throw conflict("Consent is already recorded for this session.");
-  if (ctx.study.status !== "recruiting") throw conflict("This study is not recruiting at the moment.");
-  const version = await fetchApprovedConsent(db, ctx.study.id);
+  const pilot = ctx.participant.kind !== "real";
+  if (!pilot && ctx.study.status !== "recruiting") throw conflict("This study is not recruiting at the moment.");
+  const version = await consentForSession(db, ctx);
   if (!version) throw conflict("This study has no approved consent document yet.");
   if (version.id !== input.consentVersionId || version.sha256 !== input.versionHash) throw conflict("The consent document has changed; please read the current version.");
   if (sha256Text(version.body_md) !== version.sha256) throw conflict("The consent document's stored text does not match its approved fingerprint, so consent cannot be recorded; please tell the research team.");
@@ -210,47 +281,48 @@ export async function recordConsent(db: Knex, ctx: SessionContext, input: Consen
   if (missing.length > 0) throw unprocessable(`Every statement must be ticked (missing: ${missing.join(", ")}).`);
   if (ctx.design.requireTypedName && !(input.typedName && input.typedName.length >= 2)) throw unprocessable("Type your name to sign.");
   const signedAt = new Date();
-  const conditions = conditionsOf(ctx.design);
-  const labels = await db.transaction(async (trx) => {
+  await db.transaction(async (trx) => {
     const study = await trx("studies").where({ id: ctx.study.id }).forUpdate().first<{ status: string } | undefined>("status");
-    if (study?.status !== "recruiting") throw conflict("This study is not recruiting at the moment.");
+    if (!pilot && study?.status !== "recruiting") throw conflict("This study is not recruiting at the moment.");
     const current = await trx<ParticipantRow>("participants").where({ id: ctx.participant.id }).forUpdate().first();
     if (!current || current.status !== "invited") throw current?.status === "withdrawn" ? withdrawnError() : conflict("Consent is already recorded for this session.");
-    const before = await trx("participants").where({ study_id: ctx.study.id }).whereNotNull("cb_row").count<{ n: number }[]>({ n: "*" });
-    const index = Number(before[0]?.n ?? 0);
-    const { row, order } = orderForParticipant(ctx.design, index);
-    const orderLabels = order.map((i) => conditions[i]!.label);
-    const between = betweenLevelsFor(ctx.design, index);
-    await trx("consent_records").insert({
-      participant_id: ctx.participant.id,
-      consent_version_id: version.id,
-      version_hash: version.sha256,
-      agreed: JSON.stringify(input.agreed),
-      typed_name_encrypted: ctx.design.requireTypedName && input.typedName ? sealWithDataKey(input.typedName) : null,
-      signed_at: signedAt,
-      device_summary: JSON.stringify(deviceSummary(userAgent, input.screenShortSidePx)),
-    });
+    if (!pilot) {
+      await assertCapRoom(trx, ctx.study.id, signedAt, ctx.participant.id);
+      await trx("consent_records").insert({
+        participant_id: ctx.participant.id,
+        consent_version_id: version.id,
+        version_hash: version.sha256,
+        agreed: JSON.stringify(input.agreed),
+        typed_name_encrypted: ctx.design.requireTypedName && input.typedName ? sealWithDataKey(input.typedName) : null,
+        signed_at: signedAt,
+        device_summary: JSON.stringify(deviceSummary(userAgent, input.screenShortSidePx)),
+      });
+    }
     await trx("participants").where({ id: ctx.participant.id, status: "invited" }).update({
       status: "consented",
-      cb_row: row,
-      condition_order: JSON.stringify(orderLabels),
-      between_levels: JSON.stringify(between),
+      protocol_version_id: ctx.protocolVersion?.id ?? null,
       consented_at: signedAt,
       last_activity_at: signedAt,
       progress: JSON.stringify({ ...initialProgress(), stage: "device" } satisfies Progress),
     });
-    await appendAudit(trx, { actorUserId: null, actorLabel: `participant ${ctx.participant.code}`, action: "participant.consented", studyId: ctx.study.id, details: { participant: ctx.participant.code, consentVersion: version.version, versionHash: version.sha256 } });
-    return orderLabels;
+    await appendAudit(trx, { actorUserId: null, actorLabel: `participant ${ctx.participant.code}`, action: "participant.consented", studyId: ctx.study.id, details: { participant: ctx.participant.code, consentVersion: version.version, versionHash: version.sha256, ...(ctx.protocolVersion ? { protocolVersion: ctx.protocolVersion.version } : {}), ...(pilot ? { pilot: true } : {}) } });
   });
-  return { signedAt, version: version.version, body: version.body_md, hash: version.sha256!, order: labels };
+  return { signedAt, version: version.version, body: version.body_md, hash: version.sha256!, order: null };
 }
 
-/** Stores the device check (coarse: input types, sensor rate, jitter; nothing identifying). */
+/**
+ * Stores the device check (coarse: input types, sensor rate, jitter; nothing identifying). A
+ * refusal screens the participant out: they stop counting toward the cap and release any place
+ * they hold; passing a later check takes that back.
+ */
 export async function saveDeviceCheck(db: Knex, ctx: SessionContext, input: DeviceRequest): Promise<void> {
   assertConsented(ctx);
   const device = { inputs: input.inputs, sampleRateHz: input.sampleRateHz, jitterSdMs: input.jitterSdMs, sourceKind: input.sourceKind, verdict: input.verdict };
+  const now = new Date();
   await db.transaction(async (trx) => {
-    await lockActiveParticipant(trx, ctx.participant.id, { device: JSON.stringify(device) });
+    await lockActiveParticipant(trx, ctx.participant.id, { device: JSON.stringify(device) }, now);
+    if (input.verdict === "refused") await trx("participants").where({ id: ctx.participant.id }).whereNull("cb_released_at").update({ cb_released_at: now, cb_release_reason: "device" });
+    else await trx("participants").where({ id: ctx.participant.id, cb_release_reason: "device" }).update({ cb_released_at: null, cb_release_reason: null });
     await trx("calibrations").insert({ participant_id: ctx.participant.id, kind: "device_check", result: JSON.stringify(device) });
   });
 }
@@ -309,7 +381,7 @@ export async function withdrawParticipant(db: Knex, ctx: SessionContext, reason?
   const superseded = await db.transaction(async (trx) => {
     const now = new Date();
     const n = await trx("participants").where({ id: pid }).whereNot({ status: "withdrawn" })
-      .update({ status: "withdrawn", withdrawn_at: now, last_activity_at: now, withdrawal_reason: erase ? null : reason?.trim() || null });
+      .update({ status: "withdrawn", withdrawn_at: now, last_activity_at: now, withdrawal_reason: erase ? null : reason?.trim() || null, cb_released_at: now, cb_release_reason: "withdrawn" });
     if (n === 0) return [];
     await trx("consent_records").where({ participant_id: pid }).update({ withdrawn_at: now });
     await trx("outgoing_mail").where({ participant_id: pid }).delete();
@@ -352,7 +424,9 @@ export async function completeSession(db: Knex, ctx: SessionContext): Promise<st
 
 /** One row of the live monitor. */
 export type MonitorSession = {
+  id: number;
   code: string;
+  kind: ParticipantRow["kind"];
   status: SessionState["status"];
   lastActivityAt: Date | null;
   sequencesStored: number;
@@ -381,10 +455,12 @@ export async function fetchMonitor(q: Queryable, studyId: number, now = new Date
   return participants.map((p) => {
     const device = jsonColumn(p.device) as { sampleRateHz?: number | null } | null;
     const e = errors.find((x) => x.participant_id === p.id);
-    const ctx = design.success ? { participant: p, study: { id: studyId, title: "", summary: "", status: "" }, design: design.data } : null;
+    const ctx = design.success ? { participant: p, study: { id: studyId, title: "", summary: "", status: "" }, design: design.data, protocolVersion: null } : null;
     const plan = ctx ? planOf(ctx) : null;
     const figures = {
+      id: p.id,
       code: p.code,
+      kind: p.kind,
       status: p.status,
       lastActivityAt: p.last_activity_at,
       sequencesStored: Number(streams.find((s) => s.participant_id === p.id)?.n ?? 0),

@@ -1,4 +1,5 @@
 import { assertCanViewStudy, type SessionUser } from "@/lib/auth/guards";
+import type { Knex } from "knex";
 import type { Queryable } from "@/lib/db";
 import type { Study, TeamRole } from "@/lib/data/studies";
 import { forbidden } from "@/lib/errors";
@@ -15,25 +16,52 @@ export const TRIAL_RECORD_COLUMNS = [
 
 const parseJson = (v: unknown): unknown => (typeof v === "string" ? JSON.parse(v) : v);
 
-/** The study's stored design, validated; null when the study has none yet. */
+/**
+ * The design the study's results are analysed with: the protocol version in force (what
+ * participants run), else the working copy (a draft piloted before any approval); null when
+ * there is none yet.
+ */
 export async function fetchStudyDesign(q: Queryable, studyId: number): Promise<StudyDesign | null> {
-  const row = await q("studies").where({ id: studyId }).first<{ design: unknown } | undefined>("design");
+  const version = await q("study_reviews").where({ study_id: studyId, status: "approved" }).whereNotNull("design").orderBy("id", "desc").first<{ design: unknown } | undefined>("design");
+  const row = version ?? (await q("studies").where({ id: studyId }).first<{ design: unknown } | undefined>("design"));
   if (!row || row.design === null || row.design === undefined) return null;
   return studyDesignSchema.parse(parseJson(row.design));
 }
 
 const betweenLevelsSchema = z.record(z.string(), z.string()).nullable();
 
-/** The study's participants (code, status, counterbalancing row, between-factor levels), in the order they were created. */
-export async function fetchResultsParticipants(q: Queryable, studyId: number): Promise<ResultsParticipant[]> {
-  const rows = await q("participants")
-    .where({ study_id: studyId })
-    .orderBy("id")
-    .select<{ id: number; code: string; status: ParticipantStatus; cb_row: number | null; between_levels: unknown }[]>("id", "code", "status", "cb_row", "between_levels");
-  return rows.map((r) => ({ id: r.id, code: r.code, status: r.status, cbRow: r.cb_row, betweenLevels: betweenLevelsSchema.parse(parseJson(r.between_levels)) ?? {} }));
+/** Restricts a query on participants (alias `p`) to those whose data results and archives use: real ones, and pilots the team included. */
+export function whereInAnalysis<Q extends Knex.QueryBuilder>(query: Q, alias = "p"): Q {
+  return query.where((w) => w.where(`${alias}.kind`, "real").orWhere(`${alias}.included`, true)) as Q;
 }
 
-/** Every non-practice movement of the study, grouped by participant and sequence. */
+/** Leaves out movements or streams (alias `t`) that an active exclusion covers: all of their participant's, or their measured sequence's. */
+export function whereNotExcluded<Q extends Knex.QueryBuilder>(query: Q, alias = "t"): Q {
+  return query.whereNotExists(function () {
+    this.select(1).from("exclusions as e")
+      .whereRaw(`e.participant_id = ${alias}.participant_id`)
+      .whereNull("e.revoked_at")
+      .andWhere((w) => w.where("e.scope", "participant").orWhereRaw(`(e.condition_index = ${alias}.condition_index AND e.block = ${alias}.block AND e.sequence = ${alias}.sequence AND ${alias}.practice = 0)`));
+  }) as Q;
+}
+
+/**
+ * The study's participants in results (real ones and included pilots: code, status,
+ * counterbalancing row, between-factor levels, protocol version), in the order they were created.
+ */
+export async function fetchResultsParticipants(q: Queryable, studyId: number): Promise<ResultsParticipant[]> {
+  const rows = await whereInAnalysis(q("participants as p").where("p.study_id", studyId)).leftJoin("study_reviews as v", "v.id", "p.protocol_version_id").orderBy("p.id")
+    .select<{ id: number; code: string; status: ParticipantStatus; cb_row: number | null; between_levels: unknown; kind: "real" | "pilot" | "simulated"; version: number | null }[]>(
+      "p.id", "p.code", "p.status", "p.cb_row", "p.between_levels", "p.kind", "v.version as version",
+    );
+  return rows.map((r) => ({ id: r.id, code: r.code, status: r.status, cbRow: r.cb_row, betweenLevels: betweenLevelsSchema.parse(parseJson(r.between_levels)) ?? {}, kind: r.kind, protocolVersion: r.version }));
+}
+
+/**
+ * Every non-practice movement of the study that results use (real participants and included
+ * pilots, exclusions honoured), grouped by participant and sequence. For one participant (their
+ * detail page) every movement, excluded ones too, so the team can see what it left out.
+ */
 export async function fetchStudyTrialRecords(q: Queryable, studyId: number, participantId?: number): Promise<TrialRecord[]> {
   const query = q("trials as t")
     .join("participants as p", "p.id", "t.participant_id")
@@ -42,6 +70,7 @@ export async function fetchStudyTrialRecords(q: Queryable, studyId: number, part
     .orderBy(["t.participant_id", "t.condition_index", "t.block", "t.sequence", "t.trial"])
     .select(TRIAL_RECORD_COLUMNS.map((c) => `t.${c}`));
   if (participantId !== undefined) query.andWhere("t.participant_id", participantId);
+  else whereNotExcluded(whereInAnalysis(query));
   return (await query) as TrialRecord[];
 }
 

@@ -13,7 +13,7 @@ export { buildCodebook } from "./codebook";
 export { buildMethods, type MethodsFacts } from "./methods";
 export { participantRows, QUASI_IDENTIFIERS } from "./participantRows";
 export { sequenceRows, cellRows, conditionRows } from "./resultRows";
-export type { ArchiveSource, ExportParticipant, ExportAnswer, ExportStream } from "./source";
+export type { ArchiveSource, ExportParticipant, ExportAnswer, ExportStream, ExportExclusion } from "./source";
 export { writeArchive, K_ANONYMITY_THRESHOLD, type ArchiveSummary, type ProgressListener } from "./writeArchive";
 export { validateDataPackage, valueMatchesFieldType, dataPackageSchema, TABLE_SCHEMA_TYPES } from "./validateDataPackage";
 export { exportHeapLimitMb } from "./heapLimit";

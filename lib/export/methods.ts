@@ -17,6 +17,34 @@ export interface MethodsFacts {
   start: "actual" | "nominal";
   exclude: ExclusionRule;
   unit: string;
+  /** Exclusions the research team made (whole participants or sequences), with their reasons. */
+  researcherExclusions?: { scope: "participant" | "sequence"; reason: string; movements: number }[];
+  /** Participants per protocol version they ran (amendments). */
+  protocolVersions?: { version: number | null; participants: number }[];
+}
+
+/**
+ * The sentence on the team's exclusions (researcherExclusionText): how many participants and
+ * sequences, how many movements, and each distinct reason with its count; empty when none.
+ * Cost: O(exclusions). @throws never.
+ * @example researcherExclusionText([{ scope: "sequence", reason: "sensor rate too low", movements: 9 }]) // " The research team excluded 1 sequence (9 movements): sensor rate too low (1)."
+ */
+export function researcherExclusionText(exclusions: NonNullable<MethodsFacts["researcherExclusions"]>): string {
+  if (exclusions.length === 0) return "";
+  const people = exclusions.filter((e) => e.scope === "participant").length;
+  const seqs = exclusions.length - people;
+  const parts = [people ? `${people} participant${people === 1 ? "" : "s"}` : "", seqs ? `${seqs} sequence${seqs === 1 ? "" : "s"}` : ""].filter(Boolean);
+  const reasons = new Map<string, number>();
+  for (const e of exclusions) reasons.set(e.reason, (reasons.get(e.reason) ?? 0) + 1);
+  const movements = exclusions.reduce((a, e) => a + e.movements, 0);
+  return ` The research team excluded ${parts.join(" and ")} (${movements} movements) before analysis: ${[...reasons.entries()].map(([r, n]) => `${r} (${n})`).join("; ")}.`;
+}
+
+/** The sentence on protocol versions when participants ran more than one (amendments); empty otherwise. */
+export function protocolVersionText(versions: NonNullable<MethodsFacts["protocolVersions"]>): string {
+  const known = versions.filter((v) => v.version !== null);
+  if (known.length < 2) return known.length === 1 ? ` All participants ran protocol version ${known[0]!.version}.` : "";
+  return ` The protocol was amended during data collection; participants ran the version they consented under: ${known.map((v) => `version ${v.version} (${v.participants})`).join(", ")}.`;
 }
 
 const COUNTERBALANCING: Record<StudyDesign["counterbalancing"]["method"], string> = {
@@ -65,7 +93,8 @@ export function buildMethods(title: string, design: StudyDesign, facts: MethodsF
     `The study had a within-subject design with ${factors.length === 1 ? "the factor" : "the factors"} ${list(factors)}, ${crossing}, giving ${facts.conditions.length} condition${facts.conditions.length === 1 ? "" : "s"} (${list(facts.conditions)})` +
       (between.length ? `, and the between-subject factor${between.length === 1 ? "" : "s"} ${list(between)}.` : ".") +
       ` Each participant ran ${design.blocks} block${design.blocks === 1 ? "" : "s"}; condition order was counterbalanced with ${COUNTERBALANCING[design.counterbalancing.method]}.` +
-      ` ${facts.participants} participant${facts.participants === 1 ? "" : "s"} contributed data (${facts.completed} completed the session)${facts.withdrawnLeftOut ? `; ${facts.withdrawnLeftOut} who withdrew are not included` : ""}.`,
+      ` ${facts.participants} participant${facts.participants === 1 ? "" : "s"} contributed data (${facts.completed} completed the session)${facts.withdrawnLeftOut ? `; ${facts.withdrawnLeftOut} who withdrew are not included` : ""}.` +
+      protocolVersionText(facts.protocolVersions ?? []),
     "",
     "## Task",
     "",
@@ -77,7 +106,7 @@ export function buildMethods(title: string, design: StudyDesign, facts: MethodsF
     "",
     `For each movement the selection point was projected onto the task axis from the ${facts.start === "actual" ? "previous selection point (actual start)" : "previous target's centre (nominal start)"} to the target centre (ISO 9241-411:2012; MacKenzie 1992).` +
       ` Per sequence, the effective amplitude Ae is the mean movement distance along the axis, the effective width We = 4.133 · SDx with SDx the sample standard deviation of the end points along the axis (ISO 9241-9:2000 Annex B; Soukoreff & MacKenzie 2004), the effective index of difficulty IDe = log2(Ae/We + 1) (Shannon form, MacKenzie 1992), and throughput TP = IDe/MT with MT the mean movement time.` +
-      ` Throughput was averaged over a participant's sequences per condition (the mean of means; Soukoreff & MacKenzie 2004), and all statistics ran on these participant × condition values. ${exclusion}${dropped}`,
+      ` Throughput was averaged over a participant's sequences per condition (the mean of means; Soukoreff & MacKenzie 2004), and all statistics ran on these participant × condition values. ${exclusion}${dropped}${researcherExclusionText(facts.researcherExclusions ?? [])}`,
     "",
     "## Statistics",
     "",

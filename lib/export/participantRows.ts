@@ -27,6 +27,8 @@ export function participantRows(
       status: p.status,
       cb_row: p.cbRow,
       condition_order: p.conditionOrder.join(" | "),
+      protocol_version: p.protocolVersion ?? null,
+      excluded: p.excluded ? 1 : 0,
     };
     for (const b of betweenNames) row[`between_${b}`] = p.betweenLevels[b] ?? null;
     row.age_band = coarsenAgeBand(p.final.ageBand ?? p.final.age_band ?? null);

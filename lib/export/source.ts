@@ -1,4 +1,5 @@
 import type { StudyDesign } from "../study/design";
+import type { ResearcherExclusion } from "../results/buildResultsView";
 import type { TrialRecord } from "../results/trialRecord";
 
 /** A participant as the archive sees them (withdrawn participants are never given). */
@@ -12,7 +13,14 @@ export interface ExportParticipant {
   completedAt: Date | null;
   /** Final-questionnaire answers by item id (raw; the writer coarsens them). */
   final: Record<string, string | number | null>;
+  /** The protocol version the participant ran (null: none recorded). */
+  protocolVersion?: number | null;
+  /** Excluded as a whole by the team (their movements are left out; see exclusions). */
+  excluded?: boolean;
 }
+
+/** One exclusion by the team, for exclusions.csv and the methods text (its movements are not in the source's trials); by participant id, the writer gives the pseudonym. */
+export type ExportExclusion = Omit<ResearcherExclusion, "participant"> & { participantId: number };
 
 export interface ExportAnswer {
   participantId: number;
@@ -43,6 +51,8 @@ export interface ArchiveSource {
   study: { id: number; title: string; design: StudyDesign; createdAt: Date };
   consentVersions: { version: number; sha256: string | null; status: string; bodyMd: string }[];
   participants: ExportParticipant[];
+  /** The team's exclusions, already honoured by trials() and streams(). */
+  exclusions?: ExportExclusion[];
   counts: { trials: number; streams: number };
   /** Non-practice movements of the given participants, grouped by sequence. */
   trials(): AsyncIterable<TrialRecord>;

@@ -166,6 +166,8 @@ export function participantsTableSpec(betweenNames: readonly string[], includeDa
       { name: "status", type: "string", description: "completed, in_progress or consented (withdrawn participants are left out)" },
       { name: "cb_row", type: "integer", description: "counterbalancing row (0-based)" },
       { name: "condition_order", type: "string", description: "the participant's condition labels in order, joined by ' | '" },
+      { name: "protocol_version", type: "integer", description: "the approved protocol version the participant consented under and ran (empty: none recorded)" },
+      { name: "excluded", type: "integer", description: "1 if the team excluded the participant (their movements are not in trials.csv; the reason is in exclusions.csv), else 0", constraints: { enum: [0, 1] } },
       ...betweenNames.map((b): FieldSpec => ({ name: `between_${b}`, type: "string", description: `level of the between-subject factor "${b}"` })),
       { name: "age_band", type: "string", description: "age in wide bands: under 18, 18-29, 30-44, 45-64, 65+ (empty: not asked or not answered)" },
       { name: "handedness", type: "string", description: "left, right or mixed" },
@@ -179,6 +181,25 @@ export function participantsTableSpec(betweenNames: readonly string[], includeDa
         : []),
     ],
     primaryKey: ["participant"],
+  };
+}
+
+/** exclusions.csv: what the team left out of trials.csv and the analysis, with the reason. */
+export function exclusionsTableSpec(): TableSpec {
+  return {
+    name: "exclusions",
+    path: "exclusions.csv",
+    title: "Exclusions",
+    description: "One row per exclusion the research team made: a whole participant or one sequence, with the reason given and the movements it removed. Those movements are not in trials.csv.",
+    fields: [
+      PARTICIPANT,
+      { name: "scope", type: "string", description: "participant (every sequence of the participant) or sequence (one sequence)", constraints: { enum: ["participant", "sequence"] } },
+      { ...CONDITION, constraints: undefined, description: "for a sequence: its condition label; empty for a participant" },
+      { name: "block", type: "integer", description: "for a sequence: its block" },
+      { name: "sequence", type: "integer", description: "for a sequence: its number within participant × condition × block" },
+      { name: "reason", type: "string", description: "the research team's reason, as they gave it" },
+      { name: "movements", type: "integer", description: "measured movements the exclusion removed" },
+    ],
   };
 }
 

@@ -24,7 +24,7 @@ import { participantRows, QUASI_IDENTIFIERS } from "./participantRows";
 import { cellRows, conditionRows, sequenceRows } from "./resultRows";
 import type { ArchiveSource } from "./source";
 import {
-  cellsTableSpec, conditionsTableSpec, participantsTableSpec, questionnairesTableSpec, sequencesTableSpec, trialsTableSpec, type TableSpec,
+  cellsTableSpec, conditionsTableSpec, exclusionsTableSpec, participantsTableSpec, questionnairesTableSpec, sequencesTableSpec, trialsTableSpec, type TableSpec,
 } from "./tableSpecs";
 
 /** k below this draws a warning (common practice for open data; Sweeney 2002 leaves k to the publisher). */
@@ -93,6 +93,13 @@ async function* csvChunks(header: readonly string[], rows: AsyncIterable<Record<
 }
 
 const safe = (s: string): string => s.replace(/[^A-Za-z0-9._-]+/g, "_");
+
+/** Participants per protocol version they ran, in version order (null: none recorded). */
+function countVersions(participants: ArchiveSource["participants"]): { version: number | null; participants: number }[] {
+  const by = new Map<number | null, number>();
+  for (const p of participants) by.set(p.protocolVersion ?? null, (by.get(p.protocolVersion ?? null) ?? 0) + 1);
+  return [...by.entries()].sort(([a], [b]) => (a ?? 0) - (b ?? 0)).map(([version, n]) => ({ version, participants: n }));
+}
 
 /**
  * Writes the anonymised archive of a study (writeArchive) as a ZIP file at `outPath`.
@@ -204,6 +211,13 @@ export async function writeArchive(
     }
     await add("participants.csv", Readable.from(csvChunks(partSpec.fields.map((f) => f.name), partRows)));
 
+    // exclusions.csv: what the team left out, with the reason and the movements removed
+    const exclSpec = exclusionsTableSpec();
+    const exclusions = (source.exclusions ?? []).filter((e) => pseudonyms.has(e.participantId));
+    await add("exclusions.csv", Readable.from(csvChunks(exclSpec.fields.map((f) => f.name), exclusions.map((e) => ({
+      participant: pseudonymOf(e.participantId), scope: e.scope, condition: e.condition, block: e.block, sequence: e.sequence, reason: e.reason, movements: e.movements,
+    })))));
+
     // questionnaires.csv: ratings; free text only when chosen
     const qSpec = questionnairesTableSpec(options.includeDates);
     const startOf = new Map(source.participants.map((p) => [p.id, p.startedAt]));
@@ -246,7 +260,7 @@ export async function writeArchive(
     }
 
     onProgress(0.96, "descriptions");
-    const tables: TableSpec[] = [trialsSpec, seqSpec, cellSpec, condSpec, partSpec, qSpec];
+    const tables: TableSpec[] = [trialsSpec, seqSpec, cellSpec, condSpec, partSpec, exclSpec, qSpec];
     const notes = [
       `Participants are named by ${options.pseudonyms === "stable" ? "stable pseudonyms (a keyed hash; the same in every archive of this study)" : "random pseudonyms drawn for this archive only"}; participant codes, e-mail addresses, names, session links, IP addresses and user agents are not in the archive.`,
       options.includeDates ? "Calendar dates are included (the researcher chose so)." : "Times are relative to each participant's session start; no calendar dates.",
@@ -255,6 +269,7 @@ export async function writeArchive(
       "Consent records are not in the archive; the consent documents' texts are, under consent/.",
       "Withdrawn participants are left out.",
       "Text cells that would begin with =, +, -, @, a tab or a carriage return begin with a single quote (') instead, so that a spreadsheet shows them as text and never runs them as formulas (OWASP, CSV Injection); numbers are never changed. Remove that quote before comparing such labels or answers with the study's own.",
+      `Exclusions by the research team: ${exclusions.filter((e) => e.scope === "participant").length} participant(s) and ${exclusions.filter((e) => e.scope === "sequence").length} sequence(s), ${exclusions.reduce((a, e) => a + e.movements, 0)} movements; they are listed with their reasons in exclusions.csv and not in trials.csv.`,
     ];
     const streamSection = options.includeStreams
       ? ["## streams/", "", "One gzip file per sequence, `streams/<participant>/b<block>-c<condition number>-s<sequence>.csv.gz`, in the raw sensor stream format: `t_ms, gyro_x, gyro_y, gyro_z` (deg/s about the device axes of the W3C Device Orientation and Motion specification), `accel_x, accel_y, accel_z` (m/s², including gravity), `stick_x, stick_y` (−1..1), `buttons` (bitmask), `screen_angle` (deg); `npm run replay` reads them. Condition numbers count from 1 in the order of conditions.csv.", ""]
@@ -277,6 +292,8 @@ export async function writeArchive(
         movements: facts.movements,
         excluded: facts.excluded,
         sequencesDropped: facts.sequencesDropped,
+        researcherExclusions: exclusions.map((e) => ({ scope: e.scope, reason: e.reason, movements: e.movements })),
+        protocolVersions: countVersions(source.participants),
         start: analysisOptions.start,
         exclude: analysisOptions.exclude,
         unit: design.task.unit,

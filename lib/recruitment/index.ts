@@ -2,3 +2,4 @@ export { UNAMBIGUOUS_ALPHABET, PARTICIPANT_CODE_PATTERN, randomCode, newParticip
 export { dataKeyFrom, sealText, openText } from "./sealText";
 export { invitationMail } from "./invitationMail";
 export { invitationsCsv } from "./invitationsCsv";
+export { returnAddress } from "./returnAddress";

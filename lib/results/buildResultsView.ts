@@ -21,12 +21,31 @@ export interface ResultsParticipant {
   cbRow: number | null;
   /** Levels of the study's between-subject factors. */
   betweenLevels: Record<string, string>;
+  /** "real" unless a pilot or simulated participant the team included. */
+  kind?: "real" | "pilot" | "simulated";
+  /** The protocol version the participant ran (null: from before versions, or a pilot). */
+  protocolVersion?: number | null;
+}
+
+/** One exclusion by the team, as the results and the methods text report it. */
+export interface ResearcherExclusion {
+  /** Participant code (results) or pseudonym (archive). */
+  participant: string;
+  scope: "participant" | "sequence";
+  condition: string | null;
+  block: number | null;
+  sequence: number | null;
+  reason: string;
+  /** Measured movements it removed. */
+  movements: number;
 }
 
 /** The exclusion choices a researcher makes on the results page. */
 export interface ResultsOptions {
   exclude: ExclusionRule;
   dropFlagged: FlagColumn[];
+  /** The team's exclusions of participants and sequences (lib/data/exclusions.ts), already left out of `records`: reported with the results. */
+  researcherExclusions?: readonly ResearcherExclusion[];
 }
 
 /** What the results page shows (GET /api/studies/[id]/results). */
@@ -48,6 +67,10 @@ export interface ResultsView {
   exclusions: MisfireReasons & {
     rule: string;
     withdrawn: string[];
+    /** The team's exclusions (participants or sequences, with their reasons), already left out of the movements. */
+    byResearcher: ResearcherExclusion[];
+    /** Pilot and simulated participants the team included. */
+    pilotsIncluded: string[];
     sequencesDropped: AnalysisResult["sequencesDropped"];
     missing: AnalysisResult["missing"] | null;
   };
@@ -136,6 +159,8 @@ export function buildResultsView(
       ...exclusions,
       rule: RULE_TEXT[options.exclude] + (options.dropFlagged.length ? `; flagged movements removed: ${options.dropFlagged.join(", ")}` : "; time-outs kept and counted as errors"),
       withdrawn: participants.filter((p) => p.status === "withdrawn").map((p) => p.code),
+      byResearcher: [...(options.researcherExclusions ?? [])],
+      pilotsIncluded: participants.filter((p) => p.kind !== undefined && p.kind !== "real").map((p) => p.code),
       sequencesDropped: analysis?.sequencesDropped ?? [],
       missing: analysis?.missing ?? null,
     },

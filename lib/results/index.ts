@@ -7,5 +7,5 @@ export { endpointScatter, type EndpointCloud, type MisfireReasons } from "./endp
 export { progressCounts, PARTICIPANT_STATUSES, type ParticipantStatus, type ProgressCounts } from "./progressCounts";
 export { replayTrajectory, type Trajectory } from "./replayTrajectory";
 export { qualityFlags, type QualityFlag, type QualityThresholds } from "./qualityFlags";
-export { buildResultsView, type ResultsView, type ResultsParticipant, type ResultsOptions } from "./buildResultsView";
+export { buildResultsView, type ResultsView, type ResultsParticipant, type ResultsOptions, type ResearcherExclusion } from "./buildResultsView";
 export { participantView, type ParticipantView, type ParticipantSequenceView, type ParticipantStream } from "./participantView";

@@ -55,11 +55,12 @@ export function requiredStatementIds(markdown: string): string[] {
 }
 
 /** The text of the consent copy sent by e-mail (our own wording). */
-export function consentCopyText(p: { studyTitle: string; version: number; hash: string; signedAt: Date; body: string; withdrawLink: string }): { subject: string; text: string } {
+export function consentCopyText(p: { studyTitle: string; version: number; hash: string; signedAt: Date; body: string; withdrawLink: string; participantCode?: string }): { subject: string; text: string } {
   return {
     subject: `Your copy of the consent for "${p.studyTitle}"`,
     text: [
       `You agreed to take part in "${p.studyTitle}" on ${p.signedAt.toISOString()} (consent version ${p.version}).`,
+      ...(p.participantCode ? [`Your participant code: ${p.participantCode}. Quote it if you ask the research team to erase your data.`] : []),
       `Fingerprint of the text you agreed to (SHA-256): ${p.hash}`,
       "",
       "You may stop at any time, without giving a reason. To stop, open your session link and choose \"Stop and withdraw\":",

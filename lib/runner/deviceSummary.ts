@@ -2,6 +2,8 @@
 export interface DeviceSummary {
   deviceClass: "phone-or-tablet" | "desktop" | "unknown";
   browserFamily: "chromium" | "firefox" | "safari" | "other";
+  /** Operating system family (coarse; iPadOS that reports itself as macOS counts as macOS). */
+  osFamily?: "android" | "ios" | "windows" | "macos" | "chromeos" | "linux" | "other";
   screenBand: "small" | "medium" | "large" | "unknown";
 }
 
@@ -21,5 +23,6 @@ export function deviceSummary(userAgent: string | null, screenShortSidePx: numbe
   const browserFamily = /Firefox\//.test(ua) ? "firefox" : /Chrome\/|Chromium\/|Edg\//.test(ua) ? "chromium" : /Safari\//.test(ua) ? "safari" : "other";
   const s = screenShortSidePx;
   const screenBand = s === null || !(s > 0) ? "unknown" : s < 600 ? "small" : s < 1000 ? "medium" : "large";
-  return { deviceClass, browserFamily, screenBand };
+  const osFamily = /Android/.test(ua) ? "android" : /iPhone|iPad|iPod/.test(ua) ? "ios" : /Windows NT/.test(ua) ? "windows" : /CrOS/.test(ua) ? "chromeos" : /Mac OS X|Macintosh/.test(ua) ? "macos" : /Linux|X11/.test(ua) ? "linux" : "other";
+  return { deviceClass, browserFamily, osFamily, screenBand };
 }

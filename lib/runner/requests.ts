@@ -82,4 +82,10 @@ export interface SessionState {
   /** Upload keys the server holds. */
   uploaded: string[];
   completionCode: string | null;
+  /** The participant's pseudonymous code, shown on every screen (quoted to ask for erasure). */
+  participantCode: string;
+  /** A team member trying the session: shown with a "pilot" banner, kept apart from real data. */
+  pilot: boolean;
+  /** Return addresses of a recruitment panel: after completion (with the code filled in) and when screened out. */
+  returnTo: { complete: string | null; screened: string | null };
 }

@@ -14,5 +14,9 @@ export function canTransition(from: StudyStatus, to: StudyStatus): boolean {
   return STATUS_FLOW[from].includes(to);
 }
 
-/** Design and consent may change only in these states (a change after approval sends the study back to draft). */
-export const EDITABLE_STATUSES: readonly StudyStatus[] = ["draft", "approved"];
+/**
+ * The working copy (design, consent, information, invitation text) may change in these states:
+ * after approval a change is an amendment that needs its own review; never while a submission waits
+ * for a decision (service/protocol.ts editLock also checks an amendment in review).
+ */
+export const EDITABLE_STATUSES: readonly StudyStatus[] = ["draft", "approved", "recruiting"];

@@ -7,14 +7,15 @@ import { ENTRIES as SHELL, setup as setupShell } from "./matrix/shell";
 import { ENTRIES as STUDIES, setup as setupStudies } from "./matrix/studies";
 import { ENTRIES as PARTICIPANT, setup as setupParticipant } from "./matrix/participant";
 import { ENTRIES as RESULTS, setup as setupResults } from "./matrix/results";
+import { ENTRIES as LIFECYCLE, setup as setupLifecycle } from "./matrix/lifecycle";
 
 /**
  * Every API route file, with the calls that exercise it and the roles allowed. A new route file
  * without an entry fails the first test: access rules are never left implicit. Each area keeps
  * its entries in tests/e2e/matrix/<area>.ts.
  */
-const MATRIX: Record<string, Entry> = { ...SHELL, ...STUDIES, ...PARTICIPANT, ...RESULTS };
-const setups = [setupShell, setupStudies, setupParticipant, setupResults];
+const MATRIX: Record<string, Entry> = { ...SHELL, ...STUDIES, ...PARTICIPANT, ...RESULTS, ...LIFECYCLE };
+const setups = [setupShell, setupStudies, setupParticipant, setupResults, setupLifecycle];
 
 function routeFiles(dir = "app/api"): string[] {
   return readdirSync(dir, { withFileTypes: true }).flatMap((d) => {

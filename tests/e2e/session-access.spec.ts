@@ -31,6 +31,10 @@ async function consent(token: string): Promise<SessionState> {
   const state = (await (await anon.get(`/api/session/${token}`)).json()) as SessionState;
   const res = await anon.post(`/api/session/${token}/consent`, { data: { consentVersionId: state.consent!.versionId, versionHash: state.consent!.hash, agreed: ["s1", "s2", "s3"], typedName: "Sam Example", screenShortSidePx: 800 } });
   expect(res.status(), await res.text()).toBe(201);
+  // the order comes with a counterbalancing place when the first task sequence starts, not at consent
+  expect(((await (await anon.get(`/api/session/${token}`)).json()) as SessionState).order).toBeNull();
+  const start = await anon.post(`/api/session/${token}/start`, { data: {} });
+  expect(start.status(), await start.text()).toBe(200);
   return (await (await anon.get(`/api/session/${token}`)).json()) as SessionState;
 }
 
@@ -43,6 +47,7 @@ test("a token reaches only its own session; unknown tokens are 404; staff cookie
   for (const bad of [randomBytes(16).toString("base64url"), "x", "%2e%2e"]) {
     expect((await anon.get(`/api/session/${bad}`)).status()).toBe(404);
     expect((await anon.post(`/api/session/${bad}/withdraw`, { data: {} })).status()).toBe(404);
+    expect((await anon.post(`/api/session/${bad}/start`, { data: {} })).status()).toBe(404);
   }
   expect((await anon.get(`/s/${randomBytes(16).toString("base64url")}`)).status()).toBe(404);
   for (const role of ["admin", "researcher", "reviewer"] as const) {

@@ -2,7 +2,7 @@ import { expect, test } from "@playwright/test";
 import type { Knex } from "knex";
 import { ID1_CARD_WIDTH_MM } from "../../lib/runner";
 import { createSessionStudy, fixtureDb, touchDesign, type SessionFixture } from "./fixtures/session-study";
-import { answerStep, completionCode, passChecks } from "./fixtures/session-flow";
+import { completionCode, passChecks, tapUntilComplete } from "./fixtures/session-flow";
 
 // A second participant on a phone-sized viewport with touch input: direct taps on the targets,
 // sizes in mm after the card calibration (ID-1 card, 85.60 mm wide: ISO/IEC 7810).
@@ -27,20 +27,7 @@ test("a phone participant taps through a session in mm", async ({ page }) => {
   const p = fx.participants[0]!;
   await page.goto(`/s/${p.token}`);
   await passChecks(page, { motion: false });
-  const canvas = page.getByTestId("task-canvas");
-  for (let i = 0; i < 200; i++) {
-    if (await page.getByTestId("completion-code").isVisible()) break;
-    if (await canvas.isVisible()) {
-      const frame = (await canvas.boundingBox())!;
-      const x = Number(await canvas.getAttribute("data-next-x")), y = Number(await canvas.getAttribute("data-next-y"));
-      if (Number.isFinite(x) && Number.isFinite(y) && x > 0) {
-        await page.touchscreen.tap(frame.x + x, frame.y + y);
-        await page.waitForTimeout(120);
-        continue;
-      }
-    }
-    if (!(await answerStep(page))) await page.waitForTimeout(200);
-  }
+  await tapUntilComplete(page);
   expect(await completionCode(page)).toBe(p.completionCode);
 
   const trials = await db("trials").where({ participant_id: p.id }).select<{ unit: string; amplitude: number; to_x: number; to_y: number; end_x: number; end_y: number; hit: number }[]>("unit", "amplitude", "to_x", "to_y", "end_x", "end_y", "hit");

@@ -119,7 +119,7 @@ describe("anonymised archive of the finished demo study", () => {
     const { files, summary } = await buildArchive("dp", { pseudonyms: "random", includeStreams: false, includeDates: true, includeFreeText: true });
     const descriptor = JSON.parse(files.get("datapackage.json")!.toString()) as { resources: { name: string; path: string; schema: { fields: { name: string; type: string; unit?: string; description?: string; constraints?: { required?: boolean } }[] } }[] };
     expect(validateDataPackage(descriptor)).toEqual([]);
-    expect(descriptor.resources.map((r) => r.path).sort()).toEqual(["cells.csv", "conditions.csv", "participants.csv", "questionnaires.csv", "sequences.csv", "trials.csv"]);
+    expect(descriptor.resources.map((r) => r.path).sort()).toEqual(["cells.csv", "conditions.csv", "exclusions.csv", "participants.csv", "questionnaires.csv", "sequences.csv", "trials.csv"]);
     for (const r of descriptor.resources) {
       const text = files.get(r.path)!.toString("utf8");
       const rows = parse(text, { relax_column_count: false }) as string[][];

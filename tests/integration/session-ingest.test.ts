@@ -3,6 +3,7 @@ import { seedDemo } from "@/db/seeds/demo";
 import { db } from "@/lib/db";
 import { AppError } from "@/lib/errors";
 import { completeSession, fetchSessionByToken, recordConsent, withdrawParticipant, planOf, type SessionContext } from "@/lib/data/participants";
+import { startTasks } from "@/lib/data/places";
 import { ingestSequenceBatch } from "@/lib/data/recording";
 import { forgetUploadSession, requireUploadSession } from "@/lib/data/uploadSessions";
 import { studyDesignSchema } from "@/lib/study/design";
@@ -20,6 +21,7 @@ const design = studyDesignSchema.parse(motionDesign);
 async function consented(token: string): Promise<SessionContext> {
   const ctx = (await fetchSessionByToken(db, token))!;
   await recordConsent(db, ctx, { consentVersionId: fx.consentVersionId, versionHash: fx.consentHash, agreed: ["s1", "s2", "s3"], typedName: "Robin Example", screenShortSidePx: 700 }, "Mozilla/5.0 (X11; Linux x86_64) Chrome/140");
+  await startTasks(db, (await fetchSessionByToken(db, token))!); // the order comes with a place when the tasks start
   return (await fetchSessionByToken(db, token))!;
 }
 
@@ -127,6 +129,7 @@ describe("ingestSequenceBatch", () => {
   it("keeps earlier data on withdrawal when the study's rule says keep", async () => {
     const ctx = (await fetchSessionByToken(db, keep.participants[0]!.token))!;
     await recordConsent(db, ctx, { consentVersionId: keep.consentVersionId, versionHash: keep.consentHash, agreed: ["s1", "s2", "s3"], screenShortSidePx: 400 }, null);
+    await startTasks(db, (await fetchSessionByToken(db, keep.participants[0]!.token))!);
     const c2 = (await fetchSessionByToken(db, keep.participants[0]!.token))!;
     const touch = studyDesignSchema.parse(touchDesign);
     await ingestSequenceBatch(db, c2, batchFor(touch, c2.participant.id, planOf(c2)![0]!));

@@ -13,6 +13,8 @@ import { saveConsentDraft } from "@/lib/study/service/consent";
 import { saveDesign } from "@/lib/study/service/design";
 import { setTeamMember } from "@/lib/study/service/meta";
 import { decideReview, submitForReview } from "@/lib/study/service/review";
+import { fetchInForceVersion, pendingAmendment } from "@/lib/study/service/protocol";
+import { fetchStudiesInReview } from "@/lib/data/studies";
 import { localStore } from "@/lib/storage/localStore";
 import { readDocument, saveDocument } from "@/lib/storage/documents";
 import { mkdtemp, readdir } from "node:fs/promises";
@@ -104,27 +106,39 @@ describe("review, approval and recruitment", () => {
     expect((await db("studies").where({ id }).first()).status).toBe("approved");
   });
 
-  it("a change after approval needs a new version and a new approval before recruitment opens", async () => {
+  it("a change after approval is an amendment: reviewed on its own while the approved version keeps running", async () => {
     const id = await newStudy();
     await saveDesign(db, owner, id, DESIGN);
     await saveConsentDraft(db, owner, id, { body: CONSENT });
     expect(await status(changeRecruitment(db, owner, id, { action: "open" }))).toBe(409); // not approved
+    expect(await recruitmentBlocker(db, id)).toBe("No protocol version is approved yet.");
     await submitForReview(db, owner, id);
     await decideReview(db, reviewer, id, { decision: "approve" });
     expect(await recruitmentBlocker(db, id)).toBeNull();
+    await changeRecruitment(db, owner, id, { action: "open", participantCap: 4 });
 
+    // recruiting: the design, the consent text and the information may change, as an amendment
     const changed = await saveDesign(db, owner, id, { ...DESIGN, blocks: 2 });
-    expect(changed.backToDraft).toBe(true);
-    expect(await status(changeRecruitment(db, owner, id, { action: "open" }))).toBe(409);
-    expect(await recruitmentBlocker(db, id)).toBe("The design changed after approval: submit it for review again.");
-
+    expect(changed.amendment).toBe(true);
     const v2 = await saveConsentDraft(db, owner, id, { body: CONSENT + "\nVersion two.\n" });
     expect(v2.version).toBe(2);
     expect((await db("consent_versions").where({ study_id: id, version: 1 }).first()).body_md).toBe(CONSENT); // frozen
-    await submitForReview(db, owner, id);
-    await decideReview(db, reviewer, id, { decision: "approve" });
-    await changeRecruitment(db, owner, id, { action: "open", participantCap: 4, publicLink: true });
+    expect((await db("studies").where({ id }).first()).status).toBe("recruiting"); // still running under version 1
+    expect((await pendingAmendment(db, id)).changes.map((c) => c.part)).toEqual(["design", "consent"]);
+
+    const amendment = await submitForReview(db, owner, id);
+    expect(amendment.version).toBe(2);
     expect((await db("studies").where({ id }).first()).status).toBe("recruiting");
+    expect(await status(saveDesign(db, owner, id, { ...DESIGN, blocks: 3 }))).toBe(409); // locked while in review
+    expect((await fetchStudiesInReview(db)).some((s) => s.id === id && s.amendment)).toBe(true);
+    expect((await fetchInForceVersion(db, id))!.version).toBe(1);
+    await decideReview(db, reviewer, id, { decision: "approve" });
+    const inForce = (await fetchInForceVersion(db, id))!;
+    expect(inForce.version).toBe(2);
+    expect((inForce.design as { blocks: number }).blocks).toBe(2);
+    expect(inForce.consentVersion).toBe(2);
+    expect((await db("studies").where({ id }).first()).status).toBe("recruiting");
+    expect(await status(submitForReview(db, owner, id))).toBe(409); // nothing changed since version 2
   });
 
   it("invitations store only token hashes and encrypted e-mail; codes are P-XXXXXX; the cap holds for the public link", async () => {
@@ -145,8 +159,15 @@ describe("review, approval and recruitment", () => {
       expect(JSON.stringify(row)).not.toContain(p.token);
     }
     const publicToken = state.publicLink!.split("/s/public/")[1]!;
-    const visitor = await visitPublicLink(db, publicToken);
-    expect((await db("participants").where({ code: visitor.code, study_id: id }).first()).source).toBe("public");
+    // the cap counts participants who take part (completed, or active within the inactivity time), not unopened invitations
+    const visitor = await visitPublicLink(db, publicToken, { panelId: "PANEL-4711" });
+    const row = await db("participants").where({ code: visitor.code, study_id: id }).first();
+    expect(row.source).toBe("public");
+    expect(row.panel_id_encrypted).not.toContain("4711");
+    expect(openWithDataKey(row.panel_id_encrypted)).toBe("PANEL-4711");
+    expect(await status(visitPublicLink(db, publicToken, { panelId: "PANEL-4711" }))).toBe(409); // the same panel id starts once
+    const started = await Promise.allSettled(Array.from({ length: 4 }, () => visitPublicLink(db, publicToken)));
+    expect(started.filter((r) => r.status === "fulfilled")).toHaveLength(2); // four at once for the 2 places left under the cap of 3
     expect(await status(visitPublicLink(db, publicToken))).toBe(409); // cap of 3 reached
     expect(await status(visitPublicLink(db, "not-a-real-token-000000"))).toBe(404);
 

@@ -7,3 +7,4 @@ export { counterbalancingRows } from "./counterbalancingRows";
 export { orderForParticipant } from "./orderForParticipant";
 export { plannedRowsWarning } from "./plannedRowsWarning";
 export { betweenLevelsFor, betweenGroupCount } from "./betweenLevelsFor";
+export { holdsPlace, firstFreeSlot, placeBalance, type PlaceHolder, type PlaceCell } from "./places";

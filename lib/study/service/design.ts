@@ -4,8 +4,8 @@ import { assertCanEditStudy, type SessionUser } from "@/lib/auth/guards";
 import { conflict } from "@/lib/errors";
 import { studyDesignSchema, type StudyDesign } from "../design";
 import { designHash } from "../designHash";
-import { EDITABLE_STATUSES } from "../status";
 import { auditAs } from "./audit";
+import { editLock, fetchInForceVersion } from "./protocol";
 import type { StudyDesignRow } from "./rows";
 
 export type StoredDesign = { design: StudyDesign | null; designHash: string | null; participantCap: number | null; hasPublicLink: boolean };
@@ -19,19 +19,22 @@ export async function fetchDesign(q: Queryable, studyId: number): Promise<Stored
 }
 
 /**
- * Saves a design (editor or owner). Refused while the study is in review, recruiting or closed.
- * A change after approval sends the study back to draft: it needs a new review.
- * @throws 401/403/404 from the guard, 409 in a locked status, ZodError (422) for an invalid design.
+ * Saves the working copy's design (editor or owner). Refused while a submission waits for review
+ * and once the study is closed (editLock). After approval the change is an amendment: participants
+ * keep the approved version until a reviewer approves the amended one (`amendment: true`).
+ * @throws 401/403/404 from the guard, 409 when locked, ZodError (422) for an invalid design.
  */
-export async function saveDesign(db: Knex, user: SessionUser | null, studyId: number, input: unknown): Promise<{ designHash: string; backToDraft: boolean }> {
+export async function saveDesign(db: Knex, user: SessionUser | null, studyId: number, input: unknown): Promise<{ designHash: string; amendment: boolean; backToDraft: false }> {
   const { study } = await assertCanEditStudy(db, user, studyId);
-  if (!EDITABLE_STATUSES.includes(study.status)) throw conflict(study.status === "in_review" ? "The study is in review: wait for the decision before changing the design." : "Close recruitment first: a running study's design cannot change.");
+  const lock = await editLock(db, study, "design");
+  if (lock) throw conflict(lock);
   const design = studyDesignSchema.parse(input);
   const hash = designHash(design);
   const current = await fetchDesign(db, studyId);
-  if (current.designHash === hash) return { designHash: hash, backToDraft: false };
-  const backToDraft = study.status === "approved";
-  await db("studies").where({ id: studyId }).update({ design: JSON.stringify(design), design_hash: hash, status: backToDraft ? "draft" : study.status, updated_at: db.fn.now(3) });
-  await auditAs(db, user!, "study.design", studyId, { designHash: hash, previousHash: current.designHash, ...(backToDraft ? { afterApproval: true } : {}) });
-  return { designHash: hash, backToDraft };
+  const inForce = await fetchInForceVersion(db, studyId);
+  const amendment = inForce !== null && inForce.designHash !== hash;
+  if (current.designHash === hash) return { designHash: hash, amendment, backToDraft: false };
+  await db("studies").where({ id: studyId }).update({ design: JSON.stringify(design), design_hash: hash, updated_at: db.fn.now(3) });
+  await auditAs(db, user!, "study.design", studyId, { designHash: hash, previousHash: current.designHash, ...(inForce ? { amendsVersion: inForce.version } : {}) });
+  return { designHash: hash, amendment, backToDraft: false };
 }

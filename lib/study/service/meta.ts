@@ -3,16 +3,40 @@ import { assertCanEditStudy, assertOwnsStudy, type SessionUser } from "@/lib/aut
 import { fetchStudy, addTeamMember, type Study, type TeamRole } from "@/lib/data/studies";
 import { findUserRowByEmail } from "@/lib/data/users";
 import { conflict, notFound, unprocessable } from "@/lib/errors";
-import { teamMemberSchema, updateStudySchema } from "../schemas";
+import { invitationTextSchema, teamMemberSchema, updateStudySchema } from "../schemas";
 import { auditAs } from "./audit";
+import { editLock, fetchInForceVersion } from "./protocol";
 
-/** Edits title, summary and protocol number (editor or owner). */
+/**
+ * Edits title, summary and protocol number (editor or owner). Title and summary are what
+ * participants read, so they are part of the protocol: refused while a submission waits for
+ * review, and after approval an edit is an amendment (participants keep seeing the approved
+ * version's words until a reviewer approves the new ones). The protocol number is the board's
+ * reference and may change at any time.
+ */
 export async function updateStudyMeta(db: Knex, user: SessionUser | null, studyId: number, input: unknown): Promise<Study> {
-  await assertCanEditStudy(db, user, studyId);
+  const { study } = await assertCanEditStudy(db, user, studyId);
   const v = updateStudySchema.parse(input);
+  if (v.title !== study.title || v.summary !== study.summary) {
+    const lock = await editLock(db, study, "participant information");
+    if (lock) throw conflict(lock);
+  }
   await db("studies").where({ id: studyId }).update({ title: v.title, summary: v.summary, protocol_number: v.protocolNumber, updated_at: db.fn.now(3) });
-  await auditAs(db, user!, "study.update", studyId, { title: v.title, protocolNumber: v.protocolNumber });
+  const inForce = await fetchInForceVersion(db, studyId);
+  await auditAs(db, user!, "study.update", studyId, { title: v.title, protocolNumber: v.protocolNumber, ...(inForce ? { amendsVersion: inForce.version } : {}) });
   return (await fetchStudy(db, studyId))!;
+}
+
+/** Saves the working copy of the invitation e-mail's text (editor or owner); part of the protocol, locked like the consent text. */
+export async function saveInvitationText(db: Knex, user: SessionUser | null, studyId: number, input: unknown): Promise<{ text: string }> {
+  const { study } = await assertCanEditStudy(db, user, studyId);
+  const lock = await editLock(db, study, "invitation text");
+  if (lock) throw conflict(lock);
+  const { text } = invitationTextSchema.parse(input);
+  await db("studies").where({ id: studyId }).update({ invitation_text: text, updated_at: db.fn.now(3) });
+  const inForce = await fetchInForceVersion(db, studyId);
+  await auditAs(db, user!, "study.invitation_text", studyId, { characters: text.length, ...(inForce ? { amendsVersion: inForce.version } : {}) });
+  return { text };
 }
 
 export type TeamMember = { userId: number; name: string; email: string; role: TeamRole };

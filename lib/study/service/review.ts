@@ -4,12 +4,15 @@ import { assertCanEditStudy, assertCanViewStudy, requireRole, type SessionUser }
 import { sha256Text } from "@/lib/consent/sha256Text";
 import { conflict, forbidden, unprocessable } from "@/lib/errors";
 import { decisionSchema } from "../schemas";
+import { protocolChanges } from "../protocolChanges";
 import { auditAs } from "./audit";
-import { fetchDesign } from "./design";
+import { fetchInForceVersion, fetchOpenReview, fetchWorkingCopy } from "./protocol";
 import type { ConsentVersionRow, StudyReviewRow } from "./rows";
 
 export type StudyReview = {
   id: number;
+  /** The protocol version this submission is. */
+  version: number;
   consentVersionId: number;
   consentVersion: number;
   designHash: string;
@@ -32,6 +35,7 @@ export async function listReviews(q: Queryable, studyId: number): Promise<StudyR
     .select<(StudyReviewRow & { consent_version: number; submitter: string; decider: string | null })[]>("r.*", "c.version as consent_version", "s.name as submitter", "d.name as decider");
   return rows.map((r) => ({
     id: r.id,
+    version: r.version ?? 0,
     consentVersionId: r.consent_version_id,
     consentVersion: r.consent_version,
     designHash: r.design_hash,
@@ -45,33 +49,55 @@ export async function listReviews(q: Queryable, studyId: number): Promise<StudyR
 }
 
 /**
- * Submits the saved design and the newest consent version for ethics review (editor or owner):
- * freezes that version (SHA-256 of its exact text), records the design hash, status → in_review.
- * @throws 409 unless the study is a draft with a saved design and an unsubmitted consent version.
+ * Submits the working copy for ethics review (editor or owner) as a new protocol version: freezes
+ * the newest consent version when it is a draft (SHA-256 of its exact text) and snapshots the
+ * participant information, the design, the invitation text and the erasure window.
+ * A draft study goes to in_review. An approved, recruiting study submits an amendment: it keeps
+ * its status (and keeps recruiting under the version in force) while the amendment is reviewed;
+ * the consent version in force may be kept when only other parts changed.
+ * @throws 409 while a submission waits, for a closed study, for an amendment that changes
+ *   nothing, or a consent version that was returned unchanged; 422 without a design or consent.
  */
 export async function submitForReview(db: Knex, user: SessionUser | null, studyId: number): Promise<StudyReview> {
   const { study } = await assertCanEditStudy(db, user, studyId);
-  if (study.status !== "draft") throw conflict(`Only a draft can be submitted; this study is ${study.status.replace("_", " ")}.`);
-  const { design, designHash } = await fetchDesign(db, studyId);
-  if (!design || !designHash) throw unprocessable("Save a valid design before submitting.", [{ path: "design", message: "no saved design" }]);
+  if (study.status === "in_review" || study.status === "closed") throw conflict(`Only a draft or an approved study can be submitted; this study is ${study.status.replace("_", " ")}.`);
+  if (await fetchOpenReview(db, studyId)) throw conflict("A submission is already waiting for a decision.");
+  const working = await fetchWorkingCopy(db, studyId);
+  if (!working.design || !working.designHash) throw unprocessable("Save a valid design before submitting.", [{ path: "design", message: "no saved design" }]);
   const consent = await db<ConsentVersionRow>("consent_versions").where({ study_id: studyId }).orderBy("version", "desc").first();
   if (!consent) throw unprocessable("Write a consent version before submitting.", [{ path: "consent", message: "no consent version" }]);
-  if (consent.status !== "draft") throw conflict(`Consent version ${consent.version} was already ${consent.status}: change the text to start a new version.`);
-  const hash = sha256Text(consent.body_md);
-  const reviewId = await db.transaction(async (trx) => {
-    const n = await trx("studies").where({ id: studyId, status: "draft" }).update({ status: "in_review", updated_at: trx.fn.now(3) });
-    if (n !== 1) throw conflict("The study changed meanwhile; reload and try again.");
-    await trx("consent_versions").where({ id: consent.id, status: "draft" }).update({ status: "submitted", sha256: hash, submitted_at: trx.fn.now(3) });
-    const [id] = await trx("study_reviews").insert({ study_id: studyId, consent_version_id: consent.id, design_hash: designHash, submitted_by: user!.id });
-    return Number(id);
+  const amendment = study.status !== "draft";
+  const inForce = amendment ? await fetchInForceVersion(db, studyId) : null;
+  if (amendment && inForce && protocolChanges(inForce, working).length === 0) throw conflict(`Nothing changed since the approved version ${inForce.version}: there is nothing to review.`);
+  const keepsConsent = amendment && consent.status === "approved";
+  if (consent.status !== "draft" && !keepsConsent) throw conflict(`Consent version ${consent.version} was already ${consent.status}: change the text to start a new version.`);
+  const hash = keepsConsent ? consent.sha256! : sha256Text(consent.body_md);
+  const { reviewId, version } = await db.transaction(async (trx) => {
+    if (!amendment) {
+      const n = await trx("studies").where({ id: studyId, status: "draft" }).update({ status: "in_review", updated_at: trx.fn.now(3) });
+      if (n !== 1) throw conflict("The study changed meanwhile; reload and try again.");
+    } else {
+      await trx("studies").where({ id: studyId }).forUpdate().first("id");
+      if (await trx("study_reviews").where({ study_id: studyId, status: "submitted" }).first("id")) throw conflict("A submission is already waiting for a decision.");
+    }
+    if (!keepsConsent) await trx("consent_versions").where({ id: consent.id, status: "draft" }).update({ status: "submitted", sha256: hash, submitted_at: trx.fn.now(3) });
+    const last = await trx("study_reviews").where({ study_id: studyId }).max<{ v: number | null }[]>({ v: "version" });
+    const version = Number(last[0]?.v ?? 0) + 1;
+    const [id] = await trx("study_reviews").insert({
+      study_id: studyId, consent_version_id: consent.id, design_hash: working.designHash, submitted_by: user!.id, version,
+      title: working.title, summary: working.summary, design: JSON.stringify(working.design), invitation_text: working.invitationText, erasure_window_days: working.erasureWindowDays,
+    });
+    return { reviewId: Number(id), version };
   });
-  await auditAs(db, user!, "review.submit", studyId, { reviewId, consentVersion: consent.version, consentSha256: hash, designHash });
+  await auditAs(db, user!, "review.submit", studyId, { reviewId, protocolVersion: version, consentVersion: consent.version, consentSha256: hash, designHash: working.designHash, ...(inForce ? { amendsVersion: inForce.version } : {}) });
   return (await listReviews(db, studyId)).find((r) => r.id === reviewId)!;
 }
 
 /**
- * A reviewer's decision on the open review: approve (consent version and study approved) or return
- * with a comment (study back to draft; the next text change starts a new version).
+ * A reviewer's decision on the open submission: approve (the protocol version and its consent
+ * version approved; a study in review becomes approved, an amended one keeps its status and new
+ * participants now consent under the new version) or return with a comment (a study in review goes
+ * back to draft; an amended one keeps running under the version in force).
  * A reviewer on the study's team, or who submitted it, may not decide on it.
  * @throws 403 for non-reviewers or a reviewer deciding on their own study, 409 when nothing is in review.
  */
@@ -80,15 +106,17 @@ export async function decideReview(db: Knex, user: SessionUser | null, studyId: 
   const { study, teamRole } = await assertCanViewStudy(db, reviewer, studyId);
   const v = decisionSchema.parse(input);
   const open = await db<StudyReviewRow>("study_reviews").where({ study_id: studyId, status: "submitted" }).orderBy("id", "desc").first();
-  if (study.status !== "in_review" || !open) throw conflict("This study has no submission waiting for a decision.");
+  if (!open || study.status === "closed") throw conflict("This study has no submission waiting for a decision.");
   if (teamRole !== null || study.ownerId === reviewer.id || open.submitted_by === reviewer.id) throw forbidden("You cannot decide on a study you are part of.");
   const approved = v.decision === "approve";
   await db.transaction(async (trx) => {
     const n = await trx("study_reviews").where({ id: open.id, status: "submitted" }).update({ status: approved ? "approved" : "returned", decided_by: reviewer.id, decided_at: trx.fn.now(3), comment: v.comment || null });
     if (n !== 1) throw conflict("Someone decided on this submission meanwhile.");
-    await trx("consent_versions").where({ id: open.consent_version_id }).update({ status: approved ? "approved" : "returned", decided_by: reviewer.id, decided_at: trx.fn.now(3), decision_comment: v.comment || null });
-    await trx("studies").where({ id: studyId }).update({ status: approved ? "approved" : "draft", updated_at: trx.fn.now(3) });
+    // an amendment may keep the consent version in force: only a submitted one takes the decision
+    await trx("consent_versions").where({ id: open.consent_version_id, status: "submitted" }).update({ status: approved ? "approved" : "returned", decided_by: reviewer.id, decided_at: trx.fn.now(3), decision_comment: v.comment || null });
+    if (study.status === "in_review") await trx("studies").where({ id: studyId }).update({ status: approved ? "approved" : "draft", updated_at: trx.fn.now(3) });
+    else await trx("studies").where({ id: studyId }).update({ updated_at: trx.fn.now(3) });
   });
-  await auditAs(db, reviewer, approved ? "review.approve" : "review.return", studyId, { reviewId: open.id, consentVersionId: open.consent_version_id, designHash: open.design_hash, comment: v.comment });
+  await auditAs(db, reviewer, approved ? "review.approve" : "review.return", studyId, { reviewId: open.id, protocolVersion: open.version, consentVersionId: open.consent_version_id, designHash: open.design_hash, comment: v.comment });
   return (await listReviews(db, studyId)).find((r) => r.id === open.id)!;
 }

@@ -27,6 +27,8 @@ export type ConsentVersionRow = {
 export type StudyReviewRow = {
   id: number;
   study_id: number;
+  /** protocol version number (null only for rows from before versions, until backfilled) */
+  version: number | null;
   consent_version_id: number;
   design_hash: string;
   status: "submitted" | "approved" | "returned";

@@ -24,6 +24,7 @@ export const ENTRIES: Record<string, Entry> = {
     "app/api/session/[token]/withdraw/route.ts",
     "app/api/session/[token]/sequences/route.ts",
     "app/api/session/[token]/complete/route.ts",
+    "app/api/session/[token]/start/route.ts",
   ].map(token)),
   "app/api/studies/[id]/monitor/route.ts": {
     calls: [{ method: "GET", path: () => `/api/studies/${demoStudyId}/monitor`, allowed: ["researcher"] }],

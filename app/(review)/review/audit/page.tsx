@@ -3,6 +3,7 @@ import { db } from "@/lib/db";
 import { fetchAuditHead, listAudit } from "@/lib/data/audit";
 import { keptHeadLine, listPublishedHeads } from "@/lib/data/auditHeads";
 import { getCurrentUser } from "@/lib/session";
+import { AuditDetails } from "./AuditDetails";
 import { VerifyButton } from "./VerifyButton";
 
 export const metadata = { title: "Audit trail" };
@@ -36,11 +37,12 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
       </form>
       <div className="card overflow-x-auto p-0">
         <table>
-          <thead><tr><th>#</th><th>Time (UTC)</th><th>Who</th><th>Action</th><th>Study</th><th>Hash</th></tr></thead>
+          <thead><tr><th>#</th><th>Time (UTC)</th><th>Who</th><th>Action</th><th>Study</th><th>Details</th><th>Hash</th></tr></thead>
           <tbody>
             {entries.map((e) => (
               <tr key={e.id}>
                 <td>{e.id}</td><td>{e.at.toISOString().replace("T", " ").slice(0, 19)}</td><td>{e.actor}</td><td>{e.action}</td><td>{e.studyId ?? "—"}</td>
+                <td><AuditDetails details={e.details} /></td>
                 <td><code className="text-xs">{e.hash.slice(0, 12)}…</code></td>
               </tr>
             ))}

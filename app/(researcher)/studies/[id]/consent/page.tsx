@@ -1,7 +1,7 @@
 import { db } from "@/lib/db";
 import { consentDiff } from "@/lib/consent/consentDiff";
 import { latestApprovedConsent, listConsentVersions } from "@/lib/study/service/consent";
-import { EDITABLE_STATUSES } from "@/lib/study/status";
+import { editLock, fetchWorkingCopy } from "@/lib/study/service/protocol";
 import { ConsentEditor } from "@/components/study/ConsentEditor";
 import { ConsentMarkdown } from "@/components/study/ConsentMarkdown";
 import { DiffView } from "@/components/study/DiffView";
@@ -13,14 +13,16 @@ const STARTER = `## Purpose of the study\n\n## What you will do\n\n## How long i
 
 export default async function ConsentPage({ params }: { params: Promise<{ id: string }> }) {
   const { study, canEdit, isOwner } = await studyForPage((await params).id);
-  const [versions, approved] = await Promise.all([listConsentVersions(db, study.id), latestApprovedConsent(db, study.id)]);
+  const [versions, approved, lock, working] = await Promise.all([listConsentVersions(db, study.id), latestApprovedConsent(db, study.id), editLock(db, study, "consent text"), fetchWorkingCopy(db, study.id)]);
   const latest = versions[0];
   const previous = versions[1];
-  const editable = canEdit && EDITABLE_STATUSES.includes(study.status);
+  const editable = canEdit && lock === null;
   return (
     <div className="space-y-5">
+      {canEdit && lock && <p className="notice">{lock}</p>}
+      {editable && approved && <p className="notice">Version {approved.version} is approved. A new version is part of an amendment: participants keep consenting to version {approved.version} until a reviewer approves the amendment (Review tab).</p>}
       {editable ? (
-        <ConsentEditor studyId={study.id} initial={latest?.body ?? STARTER} note={latest && latest.status !== "draft" ? `Version ${latest.version} is ${latest.status} and frozen; saving starts version ${latest.version + 1}.` : latest ? `Editing draft version ${latest.version}.` : "Saving starts version 1."} />
+        <ConsentEditor studyId={study.id} initial={latest?.body ?? STARTER} erasureWindowDays={working.erasureWindowDays} note={latest && latest.status !== "draft" ? `Version ${latest.version} is ${latest.status} and frozen; saving starts version ${latest.version + 1}.` : latest ? `Editing draft version ${latest.version}.` : "Saving starts version 1."} />
       ) : (
         latest && <div className="card"><ConsentMarkdown text={latest.body} /></div>
       )}

@@ -1,20 +1,23 @@
 import { db } from "@/lib/db";
+import { fetchPlaceBalance } from "@/lib/data/places";
 import { fetchDesign } from "@/lib/study/service/design";
-import { EDITABLE_STATUSES } from "@/lib/study/status";
+import { editLock, fetchInForceVersion } from "@/lib/study/service/protocol";
 import { DesignForm } from "@/components/study/DesignForm";
+import { PlaceBalanceTable } from "@/components/study/PlaceBalanceTable";
 import { studyForPage } from "../access";
 
 export const metadata = { title: "Design" };
 
 export default async function DesignPage({ params }: { params: Promise<{ id: string }> }) {
   const { study, canEdit } = await studyForPage((await params).id);
-  const { design } = await fetchDesign(db, study.id);
-  const locked = !EDITABLE_STATUSES.includes(study.status);
+  const [{ design }, lock, inForce] = await Promise.all([fetchDesign(db, study.id), editLock(db, study, "design"), fetchInForceVersion(db, study.id)]);
+  const balance = design ? await fetchPlaceBalance(db, study.id, design) : null;
   return (
     <div className="space-y-3">
-      {locked && <p className="notice">The design is locked while the study is {study.status.replace("_", " ")}.</p>}
-      {study.status === "approved" && <p className="notice">The study is approved. Saving a change sends it back to draft; it needs a new review before recruitment.</p>}
-      <DesignForm studyId={study.id} initial={design} readOnly={!canEdit || locked} />
+      {lock && <p className="notice">{lock}</p>}
+      {!lock && inForce && <p className="notice">Protocol version {inForce.version} is approved. Saving a change starts an amendment: participants keep the approved version until a reviewer approves the amendment (Review tab).</p>}
+      {balance && <PlaceBalanceTable cells={balance.cells} released={balance.released} design={design!} />}
+      <DesignForm studyId={study.id} initial={design} readOnly={!canEdit || lock !== null} />
     </div>
   );
 }

@@ -3,6 +3,7 @@ import { assertCanViewStudy, requireRole } from "@/lib/auth/guards";
 import { db } from "@/lib/db";
 import { AppError } from "@/lib/errors";
 import { fetchMonitor } from "@/lib/data/participants";
+import { fetchParticipantList } from "@/lib/data/participantList";
 import { getCurrentUser } from "@/lib/session";
 import { AutoRefresh } from "./AutoRefresh";
 
@@ -20,7 +21,8 @@ export default async function MonitorPage({ params }: { params: Promise<{ id: st
     if (e instanceof AppError && (e.status === 404 || e.status === 403)) notFound();
     throw e;
   }
-  const sessions = await fetchMonitor(db, id);
+  const [sessions, list] = await Promise.all([fetchMonitor(db, id), fetchParticipantList(db, id, { isOwner: false })]);
+  const detail = new Map(list.map((p) => [p.id, p]));
   const active = sessions.filter((s) => s.status === "consented" || s.status === "in_progress").length;
   return (
     <article className="space-y-3">
@@ -29,14 +31,16 @@ export default async function MonitorPage({ params }: { params: Promise<{ id: st
       <table className="w-full text-sm">
         <thead>
           <tr className="text-left">
-            <th>Participant</th><th>Status</th><th>Last activity</th><th>Rounds stored</th><th>Sensor rate</th><th>Error rate</th><th>Data quality</th>
+            <th>Participant</th><th>Status</th><th>Stage</th><th>Device check</th><th>Last activity</th><th>Rounds stored</th><th>Sensor rate</th><th>Error rate</th><th>Data quality</th>
           </tr>
         </thead>
         <tbody>
           {sessions.map((s) => (
             <tr key={s.code} className="border-t border-slate-200 align-top">
-              <td className="font-mono">{s.code}</td>
+              <td><a className="font-mono" href={`/studies/${id}/participants/${s.id}`}>{s.code}</a>{s.kind !== "real" ? ` (${s.kind})` : ""}</td>
               <td>{s.status.replace("_", " ")}</td>
+              <td>{detail.get(s.id)?.stage ?? "—"}</td>
+              <td>{detail.get(s.id)?.deviceVerdict ?? "—"}</td>
               <td>{s.lastActivityAt ? s.lastActivityAt.toISOString().replace("T", " ").slice(0, 19) + " UTC" : "—"}</td>
               <td>{s.sequencesStored}{s.sequencesPlanned !== null ? ` of ${s.sequencesPlanned}` : ""}</td>
               <td>{s.sampleRateHz !== null ? `${Math.round(s.sampleRateHz)} Hz` : "—"}</td>

@@ -11,6 +11,10 @@ import { latestApprovedConsent, listConsentVersions } from "@/lib/study/service/
 import { fetchDesign } from "@/lib/study/service/design";
 import { listReviews } from "@/lib/study/service/review";
 import { designSummary } from "@/lib/study/summary/designSummary";
+import { studyDesignSchema } from "@/lib/study/design";
+import { protocolChanges } from "@/lib/study/protocolChanges";
+import { listProtocolVersions } from "@/lib/study/service/protocol";
+import { ProtocolChangesView } from "@/components/study/ProtocolChangesView";
 import { ConsentChecklistView } from "@/components/study/ConsentChecklistView";
 import { ConsentMarkdown } from "@/components/study/ConsentMarkdown";
 import { DecisionForm } from "@/components/study/DecisionForm";
@@ -31,12 +35,18 @@ export default async function ReviewStudyPage({ params }: { params: Promise<{ id
     if (e instanceof AppError && (e.status === 404 || e.status === 403)) notFound();
     throw e;
   }
-  const [stored, versions, reviews, documents] = await Promise.all([fetchDesign(db, id), listConsentVersions(db, id), listReviews(db, id), listDocuments(db, id)]);
+  const [stored, versions, reviews, documents, protocol] = await Promise.all([fetchDesign(db, id), listConsentVersions(db, id), listReviews(db, id), listDocuments(db, id), listProtocolVersions(db, id)]);
   const open = reviews.find((r) => r.status === "submitted");
   const consent = versions.find((v) => v.id === (open ?? reviews[0])?.consentVersionId) ?? versions[0];
   const approved = await latestApprovedConsent(db, id);
   const baseline = approved && consent && approved.id !== consent.id ? approved : null;
-  const summary = stored.design ? designSummary(stored.design) : null;
+  // what the reviewer decides on: the submission waiting, else the version in force (never the team's unsubmitted edits)
+  const openVersion = protocol.find((v) => v.status === "submitted") ?? null;
+  const inForce = protocol.find((v) => v.status === "approved") ?? null;
+  const shown = openVersion ?? inForce;
+  const parsedShown = shown ? studyDesignSchema.safeParse(shown.design) : null;
+  const shownDesign = parsedShown?.success ? parsedShown.data : stored.design;
+  const summary = shownDesign ? designSummary(shownDesign) : null;
   return (
     <article className="space-y-5">
       <div className="flex flex-wrap items-center gap-3"><h1>{study.title}</h1><StatusBadge status={study.status} /></div>
@@ -44,14 +54,16 @@ export default async function ReviewStudyPage({ params }: { params: Promise<{ id
       <section className="space-y-1">
         <h2>Protocol summary</h2>
         <p className="text-sm">Ethics protocol: {study.protocolNumber ?? "not given"}</p>
-        <p className="max-w-prose whitespace-pre-line text-sm">{study.summary}</p>
-        {summary && stored.design && (
+        <p className="max-w-prose whitespace-pre-line text-sm">{shown ? shown.summary : study.summary}</p>
+        {shown && <p className="text-sm">Protocol version {shown.version} ({shown.status === "submitted" ? "waiting for your decision" : "in force"}){inForce && openVersion ? `; version ${inForce.version} is in force` : ""}.</p>}
+        {summary && shownDesign && (
           <ul className="text-sm">
             <li>Conditions: {summary.conditions.map((c) => c.label).join("; ")}</li>
-            <li>Task: {stored.design.task.type === "ring" ? "multi-directional ring" : "one-directional"}, {stored.design.task.displayMode} mode, A = {stored.design.task.amplitudes.join(", ")}, W = {stored.design.task.widths.join(", ")} {stored.design.task.unit}</li>
-            <li>{summary.trialsPerParticipant} trials per participant, about {summary.estimatedMinutes} minutes, minimum break {stored.design.minBreakSeconds} s; planned N = {stored.design.plannedParticipants}; counterbalancing: {stored.design.counterbalancing.method}</li>
-            <li>Compensation: {stored.design.compensation || "none stated"}</li>
-            <li>Design fingerprint: <code className="text-xs">{stored.designHash}</code>{open && open.designHash !== stored.designHash ? " (differs from the submitted one)" : ""}</li>
+            <li>Task: {shownDesign.task.type === "ring" ? "multi-directional ring" : "one-directional"}, {shownDesign.task.displayMode} mode, A = {shownDesign.task.amplitudes.join(", ")}, W = {shownDesign.task.widths.join(", ")} {shownDesign.task.unit}</li>
+            <li>{summary.trialsPerParticipant} trials per participant, about {summary.estimatedMinutes} minutes, minimum break {shownDesign.minBreakSeconds} s; planned N = {shownDesign.plannedParticipants}; counterbalancing: {shownDesign.counterbalancing.method}</li>
+            <li>Compensation: {shownDesign.compensation || "none stated"}</li>
+            <li>Design fingerprint: <code className="text-xs">{shown?.designHash ?? stored.designHash}</code></li>
+            <li>Erasure on request: {shown?.erasureWindowDays ? `within ${shown.erasureWindowDays} days after the session` : "no time limit stated"}</li>
           </ul>
         )}
       </section>
@@ -66,6 +78,18 @@ export default async function ReviewStudyPage({ params }: { params: Promise<{ id
           ) : (
             <p className="text-sm">No earlier approved version to compare with.</p>
           )}
+        </section>
+      )}
+      {openVersion && inForce && (
+        <section className="space-y-2">
+          <h2>Amendment: changes since the approved version {inForce.version}</h2>
+          <ProtocolChangesView changes={protocolChanges(inForce, openVersion)} baseline={`the approved version ${inForce.version}`} />
+        </section>
+      )}
+      {shown?.invitationText && (
+        <section className="space-y-1">
+          <h2>Invitation text</h2>
+          <p className="card max-w-prose whitespace-pre-line text-sm">{shown.invitationText}</p>
         </section>
       )}
       <section className="space-y-2">

@@ -3,7 +3,7 @@ import { z } from "zod";
 import { parseParams } from "@/lib/api/body";
 import { route } from "@/lib/api/respond";
 import { db } from "@/lib/db";
-import { completeSession, requireSession } from "@/lib/data/participants";
+import { completeSession, requireSession, returnAddressesFor } from "@/lib/data/participants";
 
 export const dynamic = "force-dynamic";
 const params = z.object({ token: z.string() });
@@ -12,5 +12,7 @@ const params = z.object({ token: z.string() });
 export const POST = route(async (_request: Request, context: { params: Promise<{ token: string }> }) => {
   const { token } = parseParams(params, await context.params);
   const ctx = await requireSession(db, token);
-  return NextResponse.json({ completionCode: await completeSession(db, ctx) });
+  const completionCode = await completeSession(db, ctx);
+  const returnTo = await returnAddressesFor(db, { ...ctx, participant: { ...ctx.participant, status: "completed", completion_code: completionCode } });
+  return NextResponse.json({ completionCode, returnUrl: returnTo.complete });
 });

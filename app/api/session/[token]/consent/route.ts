@@ -23,7 +23,7 @@ export const POST = route(async (request: Request, context: { params: Promise<{ 
   const result = await recordConsent(db, ctx, body, request.headers.get("user-agent"));
   let copySent = false;
   if (body.email) {
-    const mail = consentCopyText({ studyTitle: ctx.study.title, version: result.version, hash: result.hash, signedAt: result.signedAt, body: result.body, withdrawLink: `${env.NEXTAUTH_URL}/s/${token}` });
+    const mail = consentCopyText({ participantCode: ctx.participant.code, studyTitle: ctx.study.title, version: result.version, hash: result.hash, signedAt: result.signedAt, body: result.body, withdrawLink: `${env.NEXTAUTH_URL}/s/${token}` });
     try {
       await sendMail({ to: body.email, subject: mail.subject, text: mail.text, template: "consent-copy", participantId: ctx.participant.id });
       copySent = true;

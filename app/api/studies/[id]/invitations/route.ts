@@ -3,18 +3,22 @@ import { route } from "@/lib/api/respond";
 import { assertCanEditStudy, assertCanViewStudy } from "@/lib/auth/guards";
 import { db } from "@/lib/db";
 import { invitationsCsv } from "@/lib/recruitment/invitationsCsv";
-import { createInvitations, listParticipants } from "@/lib/recruitment/service";
+import { createInvitations, listInvitations, listParticipants } from "@/lib/recruitment/service";
 import { idParamSchema } from "@/lib/schemas/users";
 import { getCurrentUser } from "@/lib/session";
 import { invitationSchema } from "@/lib/study/schemas";
 
 type Ctx = { params: Promise<{ id: string }> };
 
-/** The participants by code and status (team; reviewers once beyond draft). */
+/**
+ * The participants by code and status (team; reviewers once beyond draft); for the team also the
+ * invitations with their mailing history, and for the owner alone which address got which code.
+ */
 export const GET = route(async (_request: Request, context: Ctx) => {
   const { id } = parseParams(idParamSchema, await context.params);
-  await assertCanViewStudy(db, await getCurrentUser(), id);
-  return Response.json({ participants: await listParticipants(db, id) });
+  const { teamRole } = await assertCanViewStudy(db, await getCurrentUser(), id);
+  const participants = await listParticipants(db, id);
+  return Response.json(teamRole ? { participants, invitations: await listInvitations(db, id, teamRole === "owner") } : { participants });
 });
 
 /**

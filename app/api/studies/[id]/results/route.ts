@@ -5,6 +5,7 @@ import { EXCLUSION_RULES } from "@/lib/analysis";
 import { db } from "@/lib/db";
 import { assertStudyTeam, fetchResultsParticipants, fetchStudyDesign, fetchStudyTrialRecords } from "@/lib/data/results";
 import { buildResultsView } from "@/lib/results";
+import { fetchResearcherExclusions } from "@/lib/data/exclusions";
 import { getCurrentUser } from "@/lib/session";
 import { FLAG_COLUMNS } from "@/lib/trials";
 
@@ -28,7 +29,7 @@ export const GET = route(async (request: Request, context: Ctx) => {
   const { study } = await assertStudyTeam(db, await getCurrentUser(), id);
   const design = await fetchStudyDesign(db, id);
   const participants = await fetchResultsParticipants(db, id);
-  const view = design ? buildResultsView(design, participants, await fetchStudyTrialRecords(db, id), { exclude: query.exclude, dropFlagged: query.drop }) : null;
+  const view = design ? buildResultsView(design, participants, await fetchStudyTrialRecords(db, id), { exclude: query.exclude, dropFlagged: query.drop, researcherExclusions: await fetchResearcherExclusions(db, id) }) : null;
   return Response.json(
     { study: { id: study.id, title: study.title, status: study.status }, hasDesign: design !== null, results: view, computedAt: new Date().toISOString() },
     { headers: { "cache-control": "no-store" } },
