@@ -8,6 +8,7 @@ import { fetchExportFile, insertExportJob, runExportJob } from "@/lib/data/expor
 import {
   completeSession, fetchSessionByToken, planOf, recordConsent, saveAnswers, saveCalibration, saveDeviceCheck, saveProgress, withdrawParticipant, type SessionContext,
 } from "@/lib/data/participants";
+import { startTasks } from "@/lib/data/places";
 import { ingestSequenceBatch } from "@/lib/data/recording";
 import { AppError } from "@/lib/errors";
 import { sealWithDataKey } from "@/lib/recruitment/dataKey";
@@ -27,6 +28,7 @@ const REASON = "My neighbour Pekka Salo told me the study is run by his sister";
 async function consented(fx: SessionFixture, i: number): Promise<SessionContext> {
   const ctx = (await fetchSessionByToken(db, fx.participants[i]!.token))!;
   await recordConsent(db, ctx, { consentVersionId: fx.consentVersionId, versionHash: fx.consentHash, agreed: ["s1", "s2", "s3"], typedName: NAME, screenShortSidePx: 700 }, "Mozilla/5.0 (X11; Linux x86_64) Chrome/140");
+  await startTasks(db, (await fetchSessionByToken(db, fx.participants[i]!.token))!); // the condition order comes with a place when the tasks start
   return (await fetchSessionByToken(db, fx.participants[i]!.token))!;
 }
 

@@ -117,6 +117,7 @@ describe("ingestSequenceBatch", () => {
     const extra = await createSessionStudy(db, "Ingest after completion", motionDesign, 1);
     const ctx = (await fetchSessionByToken(db, extra.participants[0]!.token))!;
     await recordConsent(db, ctx, { consentVersionId: extra.consentVersionId, versionHash: extra.consentHash, agreed: ["s1", "s2", "s3"], typedName: "Robin Example", screenShortSidePx: 700 }, null);
+    await startTasks(db, (await fetchSessionByToken(db, extra.participants[0]!.token))!);
     const live = (await fetchSessionByToken(db, extra.participants[0]!.token))!;
     const plan = planOf(live)!;
     for (const s of plan.filter((x) => !x.practice)) await ingestSequenceBatch(db, live, batchFor(design, live.participant.id, s));
