@@ -85,7 +85,9 @@ async function finish(token: string): Promise<void> {
 describe("counterbalancing with replacement and the cap", () => {
   it("four start, one is refused at the device check, one withdraws; the next two fill the free rows and the completed stay balanced", async () => {
     const studyId = await recruitingStudy(FOUR, 4);
-    const [a, b, c, d, e, f, g] = await Promise.all(Array.from({ length: 7 }, () => insertParticipant(db, studyId, "link")));
+    const made: Awaited<ReturnType<typeof insertParticipant>>[] = [];
+    for (let i = 0; i < 7; i++) made.push(await insertParticipant(db, studyId, "link")); // one by one: ids in this order
+    const [a, b, c, d, e, f, g] = made;
     for (const p of [a!, b!, c!, d!]) await consent(p.token);
     expect((await ctxOf(a!.token)).participant.cb_slot).toBeNull(); // no place at consent
     await saveDeviceCheck(db, await ctxOf(a!.token), { ...OK_DEVICE, sampleRateHz: 12, verdict: "refused" });
@@ -130,14 +132,15 @@ describe("counterbalancing with replacement and the cap", () => {
   it("a participant inactive for longer than the study allows gives the place to the next one", async () => {
     const studyId = await recruitingStudy(FOUR);
     await changeRecruitment(db, owner, studyId, { action: "settings", inactivityMinutes: 30 });
-    const [a, b] = await Promise.all([insertParticipant(db, studyId, "link"), insertParticipant(db, studyId, "link")]);
+    const a = await insertParticipant(db, studyId, "link");
+    const b = await insertParticipant(db, studyId, "link");
     await consent(a.token);
     await startTasks(db, await ctxOf(a.token));
     await db("participants").where({ id: a.id }).update({ last_activity_at: new Date(Date.now() - 31 * 60_000) });
     await consent(b.token);
     await startTasks(db, await ctxOf(b.token));
-    const rows = await db("participants").whereIn("id", [a.id, b.id]).orderBy("id").select("cb_row", "cb_release_reason");
-    expect(rows).toEqual([{ cb_row: 0, cb_release_reason: "inactive" }, { cb_row: 0, cb_release_reason: null }]);
+    const row = (id: number) => db("participants").where({ id }).first("cb_row", "cb_release_reason");
+    expect([await row(a.id), await row(b.id)]).toEqual([{ cb_row: 0, cb_release_reason: "inactive" }, { cb_row: 0, cb_release_reason: null }]);
   });
 });
 
