@@ -1,6 +1,8 @@
-// npm run replay -- --config FILE.json SAMPLES.csv
+// npm run replay -- --config FILE.json [--start X,Y] SAMPLES.csv
 // Replays a raw sensor stream through the motion engine and prints t_ms,yaw_deg,pitch_deg (view
-// mode) or t_ms,x_px,y_px (cursor mode): the accumulated output from 0 at the first sample.
+// mode) or t_ms,x_px,y_px (cursor mode): the accumulated output from 0 at the first sample, or
+// from X,Y with --start (the cursor's or view's position at the first sample, in output units;
+// absolute touch positions in the stream, pointer_x/pointer_y, are in the same coordinates).
 // Bad input: exit 2, one line on stderr naming file, line and column, nothing on stdout.
 import { readFileSync } from "node:fs";
 import { writeSync } from "node:fs";
@@ -54,18 +56,30 @@ function readConfig(file: string): TransferConfig {
   }
 }
 
-function parseArgs(argv: string[]): { config: string; samples: string } {
+const USAGE = "usage: npm run replay -- --config FILE.json [--start X,Y] SAMPLES.csv";
+
+function parseStart(text: string | undefined): { x: number; y: number } {
+  const parts = (text ?? "").split(",");
+  const [x, y] = parts.map((p) => (p.trim() === "" ? NaN : Number(p)));
+  if (parts.length !== 2 || !Number.isFinite(x) || !Number.isFinite(y)) fail(`replay: --start needs two numbers X,Y, got "${text ?? ""}" (${USAGE})`);
+  return { x: x as number, y: y as number };
+}
+
+function parseArgs(argv: string[]): { config: string; samples: string; start: { x: number; y: number } } {
   let config: string | undefined, samples: string | undefined;
+  let start = { x: 0, y: 0 };
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i];
     if (a === "--config") config = argv[++i];
     else if (a?.startsWith("--config=")) config = a.slice(9);
-    else if (a?.startsWith("--")) fail(`replay: unknown option ${a} (usage: npm run replay -- --config FILE.json SAMPLES.csv)`);
+    else if (a === "--start") start = parseStart(argv[++i]);
+    else if (a?.startsWith("--start=")) start = parseStart(a.slice(8));
+    else if (a?.startsWith("--")) fail(`replay: unknown option ${a} (${USAGE})`);
     else if (samples === undefined) samples = a;
-    else fail(`replay: more than one samples file (usage: npm run replay -- --config FILE.json SAMPLES.csv)`);
+    else fail(`replay: more than one samples file (${USAGE})`);
   }
-  if (!config || !samples) fail("replay: usage: npm run replay -- --config FILE.json SAMPLES.csv");
-  return { config, samples };
+  if (!config || !samples) fail(`replay: ${USAGE}`);
+  return { config, samples, start };
 }
 
 function main(): void {
@@ -85,9 +99,10 @@ function main(): void {
     throw error;
   }
   const engine = createMotionEngine(config);
+  engine.setPosition(args.start.x, args.start.y);
   const sample: MotionSample = { tMs: 0, gyroX: 0, gyroY: 0, gyroZ: 0 };
   const cursor = config.displayMode === "cursor";
-  let x = 0, y = 0;
+  let x = args.start.x, y = args.start.y;
   // Output lines written as bytes into one 1 MB buffer (writeMillionths gives exactly the text of
   // String(Math.round(v·1e6)/1e6)), flushed whenever fewer than LINE_ROOM bytes are left.
   const out = Buffer.allocUnsafe(OUT_BYTES);

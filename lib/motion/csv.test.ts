@@ -62,4 +62,23 @@ describe("sample stream CSV (interfaces.md format)", () => {
     expect(bad("")).toBe("s.csv:1:t_ms: empty file");
     expect(bad(`${header}\n0,Infinity,0,0,,,,,,,0\n`)).toBe("s.csv:2:gyro_x: not a number");
   });
+  it("the project's optional columns: written only when a stream has them, read back, checked the same in plain and quoted files", () => {
+    const samples: MotionSample[] = [
+      { tMs: 0, gyroX: 0, gyroY: 0, gyroZ: 0, pointerX: 12.5, pointerY: -3, selected: 0 },
+      { tMs: 8, gyroX: 0, gyroY: 0, gyroZ: 0, pointerDx: 2, pointerDy: -1, selected: 1 },
+    ];
+    const text = formatSampleCsv(samples);
+    expect(text.split("\n")[0]).toBe(`${header},pointer_dx,pointer_dy,pointer_x,pointer_y,selected`);
+    const t = parseSampleCsv(text, "p.csv");
+    expect(sampleFromTable(t, 0, { tMs: 0, gyroX: 0, gyroY: 0, gyroZ: 0 })).toMatchObject({ pointerX: 12.5, pointerY: -3, pointerDx: undefined, selected: 0 });
+    expect(sampleFromTable(t, 1, { tMs: 0, gyroX: 0, gyroY: 0, gyroZ: 0 })).toMatchObject({ pointerX: undefined, pointerDx: 2, selected: 1 });
+    const quote = (csv: string) => csv.split("\n").map((l) => (l ? l.split(",").map((f) => `"${f}"`).join(",") : l)).join("\n");
+    for (const [csv, message] of [
+      ["t_ms,gyro_x,gyro_y,gyro_z,pointer_x,pointer_y\n0,0,0,0,,4\n", "s.csv:2:pointer_x: empty while the other pointer position is given"],
+      ["t_ms,gyro_x,gyro_y,gyro_z,selected\n0,0,0,0,0.5\n", "s.csv:2:selected: not 0 or 1"],
+    ] as const) {
+      expect(bad(csv)).toBe(message);
+      expect(bad(quote(csv))).toBe(message);
+    }
+  });
 });

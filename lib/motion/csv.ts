@@ -1,10 +1,15 @@
 import { parse } from "csv-parse/sync";
 import type { MotionSample } from "./sample";
 
-/** Columns of the raw sensor stream (interfaces.md), plus the project's pointer columns. */
+/**
+ * Columns of the raw sensor stream: those of interfaces.md, then the project's optional ones —
+ * pointer movement (mouse, touch drag; CSS px), pointer position (touch in cursor mode; CSS px
+ * in the cursor's coordinates) and the selection marker (docs/configuration.md "Raw stream").
+ */
 export const sampleColumns = [
   "t_ms", "gyro_x", "gyro_y", "gyro_z", "accel_x", "accel_y", "accel_z",
   "stick_x", "stick_y", "buttons", "screen_angle", "pointer_dx", "pointer_dy",
+  "pointer_x", "pointer_y", "selected",
 ] as const;
 export type SampleColumn = (typeof sampleColumns)[number];
 const requiredColumns: readonly SampleColumn[] = ["t_ms", "gyro_x", "gyro_y", "gyro_z"];
@@ -70,6 +75,11 @@ function storeRow(table: SampleTable, values: Float64Array, file: string, line: 
   if (!Number.isNaN(b) && (!Number.isInteger(b) || b < 0 || b > 0xffffffff)) {
     throw new SampleCsvError(file, line, "buttons", "not a non-negative integer bitmask");
   }
+  if (Number.isNaN(valueAt(values, 13)) !== Number.isNaN(valueAt(values, 14))) {
+    throw new SampleCsvError(file, line, Number.isNaN(valueAt(values, 13)) ? "pointer_x" : "pointer_y", "empty while the other pointer position is given");
+  }
+  const sel = valueAt(values, 15);
+  if (!Number.isNaN(sel) && sel !== 0 && sel !== 1) throw new SampleCsvError(file, line, "selected", "not 0 or 1");
   if (row > 0 && valueAt(values, 0) < (table.columns.t_ms[row - 1] as number)) {
     throw new SampleCsvError(file, line, "t_ms", "time goes backwards");
   }
@@ -192,8 +202,9 @@ function headerLayout(names: string[], file: string): { index: Int16Array; prese
  * Parse a raw sensor stream (parseSampleCsv).
  *
  * Purpose: read the replay format of interfaces.md (header row; `t_ms, gyro_x, gyro_y, gyro_z`
- * required; `accel_*`, `stick_*`, `buttons`, `screen_angle`, `pointer_dx/dy` optional, fields may
- * be empty) into a column-wise table, validating every field. Plain numeric files take a fast
+ * required; `accel_*`, `stick_*`, `buttons`, `screen_angle`, and the project's `pointer_dx/dy`,
+ * `pointer_x/y` and `selected` optional, fields may be empty; other columns are ignored) into a
+ * column-wise table, validating every field. Plain numeric files take a fast
  * scanner; any file containing a double quote goes through csv-parse (RFC 4180 quoting).
  * Source: interfaces.md "Raw sensor stream"; RFC 4180. Cost: O(characters).
  * @throws SampleCsvError "samples.csv:17:gyro_y: not a number" (file, line, column, reason).
@@ -220,6 +231,7 @@ function parsePlain(text: string, file: string): SampleTable {
   const accel = present.accel_x || present.accel_y || present.accel_z;
   const hasAx = present.accel_x, hasAy = present.accel_y, hasAz = present.accel_z;
   const hasSx = present.stick_x, hasSy = present.stick_y, hasButtons = present.buttons;
+  const hasPx = present.pointer_x, hasPy = present.pointer_y, hasSelected = present.selected;
   const nFields = header.length;
   let pos = end + 1, line = 1, row = 0;
   while (pos < text.length) {
@@ -284,6 +296,14 @@ function parsePlain(text: string, file: string): SampleTable {
         throw new SampleCsvError(file, line, "buttons", "not a non-negative integer bitmask");
       }
     }
+    if (hasPx || hasPy) {
+      const px = !hasPx || Number.isNaN(c.pointer_x[row]), py = !hasPy || Number.isNaN(c.pointer_y[row]);
+      if (px !== py) throw new SampleCsvError(file, line, px ? "pointer_x" : "pointer_y", "empty while the other pointer position is given");
+    }
+    if (hasSelected) {
+      const v = c.selected[row] as number;
+      if (!Number.isNaN(v) && v !== 0 && v !== 1) throw new SampleCsvError(file, line, "selected", "not 0 or 1");
+    }
     if (row > 0 && t < (tMs[row - 1] as number)) throw new SampleCsvError(file, line, "t_ms", "time goes backwards");
     row++;
     pos = lineEnd + 1;
@@ -344,6 +364,9 @@ export function sampleFromTable(table: SampleTable, i: number, out: MotionSample
   out.screenAngleDeg = optionalAt(c.screen_angle, p.screen_angle, i);
   out.pointerDx = optionalAt(c.pointer_dx, p.pointer_dx, i);
   out.pointerDy = optionalAt(c.pointer_dy, p.pointer_dy, i);
+  out.pointerX = optionalAt(c.pointer_x, p.pointer_x, i);
+  out.pointerY = optionalAt(c.pointer_y, p.pointer_y, i);
+  out.selected = optionalAt(c.selected, p.selected, i);
   return out;
 }
 
@@ -358,18 +381,24 @@ const cell = (v: number | undefined): string => (v === undefined ? "" : String(v
 /**
  * Write samples in the replay format (formatSampleCsv).
  *
- * Purpose: recorded or simulated streams in the format `npm run replay` reads; pointer columns
- * only when a sample has them. Source: interfaces.md "Raw sensor stream". Cost: O(n).
+ * Purpose: recorded or simulated streams in the format `npm run replay` reads: the columns of
+ * interfaces.md, then each optional group of the project's columns only when a sample has it
+ * (pointer movement; pointer position; the selection marker), so a stream without them is written
+ * exactly as before. Source: interfaces.md "Raw sensor stream". Cost: O(n).
  * @throws never.
  * @example formatSampleCsv([{ tMs: 0, gyroX: 1, gyroY: 2, gyroZ: 3 }]).split("\n")[1] // "0,1,2,3,,,,,,,0"
  */
 export function formatSampleCsv(samples: readonly MotionSample[]): string {
-  const withPointer = samples.some((s) => s.pointerDx !== undefined || s.pointerDy !== undefined);
-  const header = sampleColumns.slice(0, withPointer ? 13 : 11).join(",");
-  const lines = [header];
+  const withDelta = samples.some((s) => s.pointerDx !== undefined || s.pointerDy !== undefined);
+  const withPosition = samples.some((s) => s.pointerX !== undefined || s.pointerY !== undefined);
+  const withSelected = samples.some((s) => s.selected !== undefined);
+  const header = [...sampleColumns.slice(0, 11), ...(withDelta ? ["pointer_dx", "pointer_dy"] : []), ...(withPosition ? ["pointer_x", "pointer_y"] : []), ...(withSelected ? ["selected"] : [])];
+  const lines = [header.join(",")];
   for (const s of samples) {
     let row = `${s.tMs},${s.gyroX},${s.gyroY},${s.gyroZ},${cell(s.accelX)},${cell(s.accelY)},${cell(s.accelZ)},${cell(s.stickX)},${cell(s.stickY)},${cell(s.buttons)},${s.screenAngleDeg ?? 0}`;
-    if (withPointer) row += `,${cell(s.pointerDx)},${cell(s.pointerDy)}`;
+    if (withDelta) row += `,${cell(s.pointerDx)},${cell(s.pointerDy)}`;
+    if (withPosition) row += `,${cell(s.pointerX)},${cell(s.pointerY)}`;
+    if (withSelected) row += `,${cell(s.selected)}`;
     lines.push(row);
   }
   return lines.join("\n") + "\n";

@@ -41,4 +41,27 @@ describe("replay CLI", { timeout: 30_000 }, () => {
     expect(r.stderr.trim().split("\n")).toHaveLength(1);
     expect(r.stderr).toMatch(new RegExp(`^${cfg.replace(/[.*+?^${}()|[\]\\]/g, "\\$&")}:3:3: gain: `));
   });
+  it("--start X,Y: the output starts there, and touch positions (pointer_x/y) put the cursor on the finger", () => {
+    const taps = file("t.csv", "t_ms,gyro_x,gyro_y,gyro_z,pointer_x,pointer_y,selected\n0,0,0,0,,,\n10,0,0,0,400,90,0\n90,0,0,0,400,90,1\n300,0,0,0,,,0\n");
+    const r = run(["--config", file("touch.json", '{ "technique": "touch", "displayMode": "cursor" }'), "--start", "200,150", taps]);
+    expect(r.status).toBe(0);
+    expect(r.stdout).toBe("t_ms,x_px,y_px\n0,200,150\n10,400,90\n90,400,90\n300,400,90\n");
+    expect(run(["--config", file("v3.json", '{ "gain": 6 }'), "--start=10.5,-3", samples]).stdout.split("\n")[2]).toBe("100,-7.5,-9");
+  });
+  it("a configuration still saying snap-turn → exit 2 naming the new value, at the key's line and column", () => {
+    const cfg = file("old.json", '{\n  "technique": "motion+stick",\n  "stickMode": "snap-turn"\n}\n');
+    const r = run(["--config", cfg, samples]);
+    expect(r.status).toBe(2);
+    expect(r.stdout).toBe("");
+    expect(r.stderr).toBe(`${cfg}:3:3: stickMode: "snap-turn" was renamed "heading" (the heading stick); use "heading"\n`);
+  });
+  it("bad new columns and a bad --start → exit 2, one line naming file, line and column", () => {
+    const half = file("half.csv", "t_ms,gyro_x,gyro_y,gyro_z,pointer_x,pointer_y\n0,0,0,0,1,2\n10,0,0,0,5,\n");
+    expect(run(["--config", file("c2.json", "{}"), half]).stderr).toBe(`${half}:3:pointer_y: empty while the other pointer position is given\n`);
+    const sel = file("sel.csv", "t_ms,gyro_x,gyro_y,gyro_z,selected\n0,0,0,0,2\n");
+    expect(run(["--config", file("c3.json", "{}"), sel]).stderr).toBe(`${sel}:2:selected: not 0 or 1\n`);
+    const bad = run(["--config", file("c4.json", "{}"), "--start", "3", samples]);
+    expect(bad.status).toBe(2);
+    expect(bad.stderr).toMatch(/^replay: --start needs two numbers X,Y, got "3"/);
+  });
 });

@@ -30,6 +30,7 @@ export interface Trajectory {
 export function replayTrajectory(streamGz: Buffer, config: TransferConfig, start: { x: number; y: number }, maxPoints = 800, file = "stream.csv"): Trajectory {
   const table = parseSampleCsv(gunzipSync(streamGz).toString("utf8"), file);
   const engine = createMotionEngine(config);
+  engine.setPosition(start.x, start.y); // absolute touch positions (pointer_x/y) are in these coordinates
   const n = table.length;
   const step = Math.max(1, Math.ceil(n / maxPoints));
   const sample: MotionSample = { tMs: 0, gyroX: 0, gyroY: 0, gyroZ: 0 };

@@ -73,3 +73,70 @@ export function deviceRatesForViewRate(config: TransferConfig, viewRateX: number
     out.z = h * up.z + (v * rz) / rn;
   }
 }
+
+/**
+ * Stick deflection that makes the stick channel turn the view at a given rate (stickForViewRate).
+ *
+ * Purpose: the simulated participant's thumb for rate control: the inverse of the radial dead
+ * zone and curve of science.md §8 "Stick": for a view rate of magnitude q ≤ max, the radius
+ * r = r0 + (q/max)^(1/p)·(r1 − r0) along the wanted direction; W3C Gamepad standard mapping, so
+ * looking up is a negative y (flipped again with `invertVertical`). A rate above the stick's top
+ * rate is clipped to it. Writes `out.x`, `out.y` (−1..1). Cost: O(1).
+ * @throws never; (0, 0) for a zero rate.
+ * @example stickForViewRate(defaultTransferConfig, 0, 45, out); out.y // −0.55 (45 of 180 deg/s up, p = 2)
+ */
+export function stickForViewRate(config: TransferConfig, viewRateX: number, viewRateY: number, out: { x: number; y: number }): void {
+  const q = Math.sqrt(viewRateX * viewRateX + viewRateY * viewRateY);
+  out.x = 0;
+  out.y = 0;
+  if (q === 0) return;
+  const share = Math.min(1, q / config.stickMaxRateDegPerS);
+  const r = config.stickDeadZone + Math.pow(share, 1 / config.stickExponent) * (config.stickOuterEdge - config.stickDeadZone);
+  out.x = (viewRateX / q) * r;
+  out.y = (-viewRateY / q) * r * (config.invertVertical ? -1 : 1);
+}
+
+/**
+ * Pointer movement that gives an output step (pointerForOutputStep).
+ *
+ * Purpose: the simulated participant's mouse or dragging finger: the inverse of the pointer
+ * channel (cursor mode: `pointerCursorGain` px per px, page y down; view mode:
+ * `pointerDegreesPerPixel`, a drag up looking up, flipped with `invertVertical`). Writes
+ * `out.x`, `out.y` in CSS px. Source: docs/configuration.md "Pointer". Cost: O(1).
+ * @throws never.
+ * @example pointerForOutputStep({ ...defaultTransferConfig, pointerDegreesPerPixel: 0.2 }, 2, 1, out); [out.x, out.y] // [10, −5]
+ */
+export function pointerForOutputStep(config: TransferConfig, dx: number, dy: number, out: { x: number; y: number }): void {
+  const cursor = config.displayMode === "cursor";
+  const gain = cursor ? config.pointerCursorGain : config.pointerDegreesPerPixel;
+  out.x = dx / gain;
+  out.y = (cursor ? dy : -dy) / gain / (config.invertVertical ? -1 : 1);
+}
+
+/**
+ * The hold that makes tilt-rate turn the view at a given rate (tiltUpForViewRate).
+ *
+ * Purpose: the simulated participant's wrist for tilt-rate: the inverse of the tilt channel —
+ * tilt magnitude dz + (q/max)^(1/p)·(tiltMax − dz) in the wanted direction from the reference
+ * hold (lowering the right edge turns right, tilting the top edge away turns up), as the unit
+ * "up" vector in device axes (screen angle 0): up = (sin s, cos s·sin f, cos s·cos f) for the
+ * sideways angle s and the forward angle f. A rate above the top rate is clipped to it; a zero
+ * rate gives the reference hold itself. Writes `out`. Cost: O(1).
+ * @param reference the neutral hold's sideways and forward angles, degrees.
+ * @throws never.
+ * @example tiltUpForViewRate(defaultTransferConfig, 0, 0, { sideways: 0, forward: 90 }, out); out.y // 1 (upright)
+ */
+export function tiltUpForViewRate(config: TransferConfig, viewRateX: number, viewRateY: number, reference: { sideways: number; forward: number }, out: Vec3): void {
+  const q = Math.sqrt(viewRateX * viewRateX + viewRateY * viewRateY);
+  let sideways = reference.sideways, forward = reference.forward;
+  if (q > 0) {
+    const share = Math.min(1, q / config.tiltMaxRateDegPerS);
+    const mag = config.tiltDeadZoneDeg + Math.pow(share, 1 / config.tiltExponent) * (config.tiltMaxDeg - config.tiltDeadZoneDeg);
+    sideways -= (viewRateX / q) * mag;
+    forward -= (viewRateY / q) * mag * (config.invertVertical ? -1 : 1);
+  }
+  const s = (sideways * Math.PI) / 180, f = (forward * Math.PI) / 180;
+  out.x = Math.sin(s);
+  out.y = Math.cos(s) * Math.sin(f);
+  out.z = Math.cos(s) * Math.cos(f);
+}

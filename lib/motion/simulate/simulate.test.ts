@@ -8,7 +8,8 @@ import { fittsMovementTimeMs, minimumJerkFraction } from "./minimumJerk";
 import { simulateSequence } from "./participant";
 import { createSeededRandom } from "./prng";
 import { deviceSpeedForOutputSpeed } from "./inverseTransfer";
-import { defaultTransferConfig } from "../config";
+import { defaultTransferConfig, type TransferConfigInput } from "../config";
+import type { MotionSample } from "../sample";
 import type { TrialRow } from "./trialRow";
 
 const n = 13, D = 480, W = 48;
@@ -81,12 +82,11 @@ describe("simulated participant", () => {
     });
   });
 
-  it("is reproducible from its seed and supports the mouse baseline", () => {
+  it("is reproducible from its seed", () => {
     const a = simulateSequence({ targets, amplitude: A, width: W }, { technique: "mouse", displayMode: "cursor" }, { seed: 11 });
     const b = simulateSequence({ targets, amplitude: A, width: W }, { technique: "mouse", displayMode: "cursor" }, { seed: 11 });
     expect(a.trials).toEqual(b.trials);
-    expect(a.samples.some((s) => (s.pointerDx ?? 0) !== 0)).toBe(true);
-    expect(() => simulateSequence({ targets, amplitude: A, width: W }, { technique: "stick" }, { seed: 1 })).toThrow("simulateSequence supports");
+    expect(a.samples).toEqual(b.samples);
   });
 
   // Consistency check, not an outside reference: the analysis of the simulated logs (lib/analysis,
@@ -130,3 +130,108 @@ describe("simulated participant", () => {
     }
   });
 });
+
+describe("every technique, both display modes", () => {
+  // view mode: a ring of 13 targets 40° across, 4° wide (yaw right, pitch up)
+  const viewRing = ringTargets(n, 40, { x: 0, y: 0 }).map((p) => ({ x: p.x, y: -p.y }));
+  const viewTargets = ringVisitingOrder(n).map((i) => viewRing[i]!);
+  const tasks = {
+    cursor: { targets, amplitude: A, width: W },
+    view: { targets: viewTargets, amplitude: ringAmplitude(n, 40), width: 4 },
+  } as const;
+  const cases: [string, TransferConfigInput][] = [
+    ["motion", { technique: "motion", frame: "adaptive", gain: 3 }],
+    ["stick (rate)", { technique: "stick" }],
+    ["motion+stick (rate)", { technique: "motion+stick", frame: "gravity", gain: 2 }],
+    ["motion+stick (heading)", { technique: "motion+stick", stickMode: "heading", frame: "adaptive", gain: 2 }],
+    ["motion+touch", { technique: "motion+touch", gain: 1.5, pointerDegreesPerPixel: 0.25 }],
+    ["mouse", { technique: "mouse", pointerCursorGain: 1.5 }],
+    ["touch", { technique: "touch", pointerDegreesPerPixel: 0.2 }],
+    ["tilt-rate", { technique: "tilt-rate", gravityFilterTimeMs: 300 }],
+    ["motion, inverted vertical, while aiming, latency", { technique: "motion", invertVertical: true, activation: "while-aiming", addedLatencyMs: 40, smoothingTimeMs: 30 }],
+    ["stick, inverted vertical", { technique: "stick", invertVertical: true }],
+    ["tilt-rate, inverted vertical", { technique: "tilt-rate", invertVertical: true }],
+  ];
+  for (const displayMode of ["cursor", "view"] as const) {
+    for (const [name, base] of cases) {
+      it(`${name}, ${displayMode} mode: the stream replays to the logged selections, which land where the person aimed`, () => {
+        // calibrated at rest, as the session runner does before the tasks (science.md §8 "Bias")
+        const rest = simulateSequence(tasks[displayMode], { ...base, displayMode }, { seed: 20, sensor: "phone", restMs: 1500 });
+        const gyro = !(base.technique === "stick" || base.technique === "mouse" || base.technique === "touch");
+        const b = gyro ? estimateBiasAtRest(rest.samples) : { biasXDegPerS: 0, biasYDegPerS: 0, biasZDegPerS: 0 };
+        const config = { ...base, displayMode, pixelsPerDegree: 12, biasXDegPerS: b.biasXDegPerS, biasYDegPerS: b.biasYDegPerS, biasZDegPerS: b.biasZDegPerS };
+        const task = tasks[displayMode];
+        const sim = simulateSequence(task, config, { seed: 21, sensor: "phone", restMs: 400 });
+        expect(sim.trials).toHaveLength(n);
+        // replay through a fresh engine, from the logged start, as `npm run replay --start` does
+        const e = createMotionEngine(config);
+        e.setPosition(sim.start.x, sim.start.y);
+        let x = sim.start.x, y = sim.start.y;
+        const atSelection: { x: number; y: number }[] = [];
+        for (const s of parseSampleCsvSamples(sim.samples)) {
+          const o = e.push(s)!;
+          x += o.dx;
+          y += o.dy;
+          if (s.selected === 1) atSelection.push({ x, y });
+        }
+        expect(atSelection).toHaveLength(sim.selections.length);
+        atSelection.forEach((p, i) => {
+          expect(p.x).toBeCloseTo(sim.selections[i]!.x, 6);
+          expect(p.y).toBeCloseTo(sim.selections[i]!.y, 6);
+        });
+        // the engine takes the cursor where the person aimed, within a tenth of the width (the
+        // phone's gyroscope noise and 0.1 deg/s coarsening, whole mouse pixels, tilt steering)
+        const tolerance = task.width * 0.1;
+        sim.trials.forEach((t, i) => expect(Math.hypot(t.end_x - sim.intendedEndpoints[i]!.x, t.end_y - sim.intendedEndpoints[i]!.y), `movement ${i + 1}`).toBeLessThan(tolerance));
+      });
+    }
+  }
+
+  it("fills the fields each technique's live source fills, and no others", () => {
+    const fields = (config: TransferConfigInput) => {
+      const sim = simulateSequence({ targets, amplitude: A, width: W }, { ...config, displayMode: "cursor" }, { seed: 2, restMs: 300 });
+      const used = new Set<string>();
+      for (const s of sim.samples) for (const [k, v] of Object.entries(s)) if (v !== undefined && (typeof v !== "number" || v !== 0 || k === "tMs")) used.add(k);
+      return { used, clock: sim.clock, rate: sim.samples.length / ((sim.samples.at(-1)!.tMs - sim.samples[0]!.tMs) / 1000) };
+    };
+    const stick = fields({ technique: "stick" });
+    expect([...stick.used].filter((k) => /^(gyro|accel|pointer)/.test(k))).toEqual([]);
+    expect(stick.used.has("stickX") && stick.clock === "gamepad").toBe(true);
+    expect(stick.rate).toBeGreaterThan(55); // read once per animation frame, 60 Hz
+    const mouse = fields({ technique: "mouse" });
+    expect(mouse.used.has("pointerDx") && !mouse.used.has("accelX") && !mouse.used.has("pointerX")).toBe(true);
+    const touch = fields({ technique: "touch" });
+    expect(touch.used.has("pointerX") && !touch.used.has("pointerDx") && touch.clock === "taps").toBe(true);
+    const tilt = fields({ technique: "tilt-rate" });
+    expect(tilt.used.has("accelX") && tilt.used.has("gyroX") && !tilt.used.has("stickX")).toBe(true);
+  });
+
+  it("mouse movement comes in whole pixels (Pointer Lock movementX/Y are integers)", () => {
+    const sim = simulateSequence({ targets, amplitude: A, width: W }, { technique: "mouse", displayMode: "cursor", pointerCursorGain: 1.3 }, { seed: 4 });
+    expect(sim.samples.every((s) => Number.isInteger(s.pointerDx ?? 0) && Number.isInteger(s.pointerDy ?? 0))).toBe(true);
+  });
+
+  it("the stick stays inside its range and never turns faster than its top rate allows (W3C Gamepad: axes −1..1)", () => {
+    const sim = simulateSequence({ targets, amplitude: A, width: W }, { technique: "stick", displayMode: "cursor", stickMaxRateDegPerS: 60 }, { seed: 5, interceptMs: 0, slopeMsPerBit: 50 });
+    expect(sim.samples.every((s) => Math.hypot(s.stickX ?? 0, s.stickY ?? 0) <= 0.95 + 1e-12)).toBe(true);
+    // at 60 deg/s and 12 px per degree, a 466 px hop needs at least 1.875 × 466 / (0.95 × 720) s
+    for (const t of sim.trials) expect(t.time_ms).toBeGreaterThan((1000 * 1.875 * Math.hypot(t.end_x - t.start_x, t.end_y - t.start_y)) / (0.95 * 720) * 0.98);
+  });
+
+  it("a heading stick alone cannot aim vertically: refused on a ring, fine on a horizontal strip", () => {
+    expect(() => simulateSequence({ targets, amplitude: A, width: W }, { technique: "stick", stickMode: "heading" }, { seed: 1 })).toThrow("turns only horizontally");
+    const strip = [{ x: -20, y: 0 }, { x: 20, y: 0 }, { x: -20, y: 0 }, { x: 20, y: 0 }];
+    const sim = simulateSequence({ targets: strip, amplitude: 40, width: 5 }, { technique: "stick", stickMode: "heading" }, { seed: 1, restMs: 200 });
+    sim.trials.forEach((t, i) => expect(t.end_x).toBeCloseTo(sim.intendedEndpoints[i]!.x, 9));
+  });
+
+  it("refuses a selection button that is also a control", () => {
+    expect(() => simulateSequence({ targets, amplitude: A, width: W }, { recenterButton: 3 }, { seed: 1, selectButton: 3 })).toThrow("also the configuration's recenterButton");
+  });
+});
+
+/** Samples through the replay format and back (what a stored stream holds). */
+function parseSampleCsvSamples(samples: readonly MotionSample[]): MotionSample[] {
+  const table = parseSampleCsv(formatSampleCsv(samples), "sim.csv");
+  return Array.from({ length: table.length }, (_, i) => sampleFromTable(table, i, { tMs: 0, gyroX: 0, gyroY: 0, gyroZ: 0 }));
+}
