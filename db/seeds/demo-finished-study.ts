@@ -136,6 +136,12 @@ export async function seedFinishedStudy(db: Knex, userIds: ReadonlyMap<string, n
       study_id: studyId, version: 1, body_md: CONSENT_TEXT, sha256: consentHash, status: "approved",
       created_by: ownerId, created_at: day(-20), submitted_at: day(-19), decided_by: reviewerId, decided_at: day(-14), decision_comment: "Approved as written.",
     });
+    // protocol version 1: what the reviewer approved (information, design, consent) and every participant ran
+    const [protocolId] = await trx("study_reviews").insert({
+      study_id: studyId, consent_version_id: Number(consentId), version: 1, status: "approved", title: FINISHED_STUDY.title, summary: FINISHED_STUDY.summary,
+      design: JSON.stringify(design), design_hash: designText ? createHash("sha256").update(designText, "utf8").digest("hex") : "", erasure_window_days: null,
+      submitted_by: ownerId, submitted_at: day(-19), decided_by: reviewerId, decided_at: day(-14), comment: "Approved as written.",
+    });
 
     for (let i = 0; i < 12; i++) {
       const code = "P-" + Array.from({ length: 6 }, () => CODE_ALPHABET[Math.floor(rng.uniform() * CODE_ALPHABET.length)]).join("");
@@ -144,7 +150,7 @@ export async function seedFinishedStudy(db: Knex, userIds: ReadonlyMap<string, n
       const person = { speed: 0.85 + 0.3 * rng.uniform(), precision: 0.85 + 0.3 * rng.uniform() };
       const [pid] = await trx("participants").insert({
         study_id: studyId, code, token_hash: createHash("sha256").update(randomBytes(16)).digest("hex"), source: "link", status: "completed",
-        cb_row: row, condition_order: JSON.stringify(order.map((k) => conditions[k]!.label)), between_levels: JSON.stringify({}),
+        cb_row: row, cb_slot: i, protocol_version_id: Number(protocolId), condition_order: JSON.stringify(order.map((k) => conditions[k]!.label)), between_levels: JSON.stringify({}),
         completion_code: `HV-${code.slice(2)}`, device: JSON.stringify({ inputs: ["gyroscope", "touch"], sensorRateHz: 60 }),
         created_at: day(Math.floor(i / 2) - 1), consented_at: new Date(started.getTime() - 60_000), started_at: started,
         completed_at: new Date(started.getTime() + (22 + Math.floor(rng.uniform() * 8)) * 60_000), last_activity_at: new Date(started.getTime() + 30 * 60_000),

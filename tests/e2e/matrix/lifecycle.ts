@@ -29,17 +29,19 @@ export async function setup(clients: Clients): Promise<void> {
   await json(researcher.post(`/api/studies/${ids.ready}/consent`, { data: { body: MATRIX_CONSENT } }), "consent");
   ids.reviewed = await studyAt(researcher, reviewer, "approved");
   ids.recruiting = await studyAt(researcher, reviewer, "recruiting");
-  const csv = await (await researcher.post(`/api/studies/${ids.recruiting}/invitations`, { data: { mode: "links", count: 2 } })).text();
+  const csv = await (await researcher.post(`/api/studies/${ids.recruiting}/invitations`, { data: { mode: "links", count: 3 } })).text();
   const codes = csv.trim().split("\n").slice(1).map((l) => l.split(",")[0]!);
   const listed = await json<{ invitations: { participantId: number; code: string }[] }>(researcher.get(`/api/studies/${ids.recruiting}/invitations`), "list");
   ids.invitation = listed.invitations.find((i) => i.code === codes[0])!.participantId;
   ids.participant = listed.invitations.find((i) => i.code === codes[1])!.participantId;
+  erasable = codes[2]!;
   const pilot = await json<{ pilot: { code: string } }>(researcher.post(`/api/studies/${ids.ready}/pilots`, { data: { device: "here" } }), "pilot");
   expect(pilot.pilot.code).toMatch(/^P-/);
   ids.exclusion = (await json<{ exclusion: { id: number } }>(researcher.post(`/api/studies/${ids.recruiting}/exclusions`, { data: { scope: "participant", participantId: ids.participant, reason: "made by the role matrix" } }), "exclusion")).exclusion.id;
 }
 
 let researcherClient: APIRequestContext | null = null;
+let erasable = "";
 
 /** A fresh pilot of the ready study (each allowed call that deletes or changes one consumes it). */
 async function pilotId(): Promise<number> {
@@ -67,6 +69,7 @@ export const ENTRIES: Record<string, Entry> = {
     ],
   },
   "app/api/studies/[id]/exclusions/[xid]/route.ts": { calls: [{ method: "DELETE", path: () => `/api/studies/${ids.recruiting}/exclusions/${ids.exclusion}`, allowed: ["researcher"] }] },
+  "app/api/studies/[id]/erasures/route.ts": { calls: [{ method: "POST", path: () => `/api/studies/${ids.recruiting}/erasures`, body: () => ({ code: erasable, confirm: true }), allowed: ["researcher"] }] },
   // the information page is a GET of /s/public/<token>; this POST is its "Start" form, anonymous by design (tests/e2e/lifecycle-public.spec.ts)
   "app/api/public/[token]/route.ts": { public: true, note: "a public link's Start form: the link itself is the invitation; creates one participant per browser, cap checked atomically" },
 };

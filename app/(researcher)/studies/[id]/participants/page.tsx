@@ -1,6 +1,8 @@
 import { db } from "@/lib/db";
 import { fetchParticipantList, type ParticipantListEntry } from "@/lib/data/participantList";
+import { EraseByCode } from "@/components/study/EraseByCode";
 import { ParticipantsTable, type ParticipantTableRow } from "@/components/study/ParticipantsTable";
+import { fetchInForceVersion } from "@/lib/study/service/protocol";
 import { studyForPage } from "../access";
 
 export const metadata = { title: "Participants" };
@@ -18,7 +20,7 @@ const toRow = (p: ParticipantListEntry): ParticipantTableRow => ({
 export default async function ParticipantsPage({ params }: { params: Promise<{ id: string }> }) {
   const { study, canEdit, isOwner, teamRole } = await studyForPage((await params).id);
   if (!teamRole) return <p className="notice">Only the study&apos;s team sees its participants.</p>;
-  const all = await fetchParticipantList(db, study.id, { isOwner });
+  const [all, inForce] = await Promise.all([fetchParticipantList(db, study.id, { isOwner }), fetchInForceVersion(db, study.id)]);
   const real = all.filter((p) => p.kind === "real").map(toRow);
   const pilots = all.filter((p) => p.kind !== "real").map(toRow);
   return (
@@ -28,6 +30,7 @@ export default async function ParticipantsPage({ params }: { params: Promise<{ i
         <p className="max-w-prose text-sm">Codes are pseudonyms. Data-quality warnings suggest candidates for exclusion; an exclusion keeps the data stored, leaves it out of results and archives, and is reported there with its reason. {isOwner ? "Panel ids are shown to you as the owner, for matching payments; they never leave in an archive." : ""}</p>
         <ParticipantsTable studyId={study.id} rows={real} canEdit={canEdit} pilots={false} showPanel={isOwner && real.some((r) => r.panelId !== null)} />
       </section>
+      {isOwner && <EraseByCode studyId={study.id} windowDays={inForce?.erasureWindowDays ?? null} />}
       <section className="space-y-2">
         <h2>Pilots and simulated participants ({pilots.length})</h2>
         <p className="max-w-prose text-sm">Kept apart from real participants: they take no place and stay out of results and archives unless included.</p>
