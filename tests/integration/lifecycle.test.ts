@@ -4,6 +4,7 @@ import { db } from "@/lib/db";
 import type { SessionUser } from "@/lib/auth/guards";
 import { AppError } from "@/lib/errors";
 import { addExclusion, fetchResearcherExclusions, revokeExclusion } from "@/lib/data/exclusions";
+import { eraseByCode } from "@/lib/data/erasureRequests";
 import { databaseArchiveSource } from "@/lib/data/exports";
 import { consentForSession, completeSession, fetchSessionByToken, recordConsent, saveDeviceCheck, withdrawParticipant, planOf, type SessionContext } from "@/lib/data/participants";
 import { countTowardCap, fetchPlaceBalance, startTasks } from "@/lib/data/places";
@@ -249,5 +250,27 @@ describe("exclusions", () => {
     expect(await fetchStudyTrialRecords(db, studyId)).toHaveLength(2 * 4 * 5);
     const audit = await db("audit_log").where({ study_id: studyId }).whereIn("action", ["exclusion.add", "exclusion.revoke"]).count<{ n: number }[]>({ n: "*" });
     expect(audit).toEqual([{ n: 4 }]);
+  });
+});
+
+describe("erasure by code", () => {
+  it("is the owner's, takes the code as the participant quotes it, and keeps to the window the consent text states", async () => {
+    const studyId = await recruitingStudy(FOUR);
+    const [a, b] = [await insertParticipant(db, studyId, "link"), await insertParticipant(db, studyId, "link")];
+    for (const p of [a, b]) {
+      await consent(p.token);
+      await finish(p.token);
+    }
+    const editor = await user("priya@harbourview-lab.example");
+    expect(await status(eraseByCode(db, editor, studyId, { code: a.code, confirm: true }))).toBe(403);
+    expect(await status(eraseByCode(db, owner, studyId, { code: "P-ZZZZZZ", confirm: true }))).toBe(404);
+    // version 1 stated no window: erasure at any time, the code typed in lower case without its dash
+    const report = await eraseByCode(db, owner, studyId, { code: a.code.toLowerCase().replace("-", ""), confirm: true });
+    expect(report.removed.trials).toBe(4 * 5);
+    // a window of 30 days, counted from the end of the session (here 31 days ago)
+    await db("study_reviews").where({ study_id: studyId }).update({ erasure_window_days: 30 });
+    await db("participants").where({ id: b.id }).update({ completed_at: new Date(Date.now() - 31 * 86_400_000) });
+    expect(await status(eraseByCode(db, owner, studyId, { code: b.code, confirm: true }))).toBe(409);
+    expect(await status(eraseByCode(db, owner, studyId, { code: b.code, confirm: true }, new Date(Date.now() - 2 * 86_400_000)))).toBe(200);
   });
 });
