@@ -29,6 +29,7 @@ export default defineConfig({
       PARTICIPANT_DATA_KEY: process.env.PARTICIPANT_DATA_KEY ?? "development-only-participant-data-key",
       // the keys the seed used: npm test exports its own; run by hand, the seed used the development defaults
       AUDIT_KEY: process.env.AUDIT_KEY ?? "development-only-audit-key",
+      MAIL_FAKE: "true", // the tests read mail from the local fake
       DB_NAME: process.env.DB_NAME ?? "yawpoint_test",
       SMTP_PORT: process.env.SMTP_PORT ?? "2526",
       MAIL_FAKE_HTTP_PORT: process.env.MAIL_FAKE_HTTP_PORT ?? "2581",

@@ -24,6 +24,8 @@ const schemaFor = (isDev: boolean) => z.object({
   DB_OWNER_PASSWORD: z.string().default("yawpoint-owner-local"),
   /** Largest number of database connections the server's pool opens. */
   DB_POOL_MAX: z.coerce.number().int().min(1).max(200).default(10),
+  /** How many reverse proxies in front of the server append to X-Forwarded-For; 0 (the default): the header is ignored. */
+  TRUSTED_PROXY_HOPS: z.coerce.number().int().min(0).max(10).default(0),
   SMTP_HOST: z.string().default("127.0.0.1"),
   SMTP_PORT: z.coerce.number().int().positive().default(2525),
   SMTP_USER: z.string().optional(),
@@ -31,7 +33,8 @@ const schemaFor = (isDev: boolean) => z.object({
   SMTP_SECURE: z.enum(["true", "false"]).default("false").transform((v) => v === "true"),
   MAIL_FROM: z.string().default("Yawpoint <no-reply@yawpoint.invalid>"),
   MAIL_FAKE_HTTP_PORT: z.coerce.number().int().positive().default(2580),
-  MAIL_FAKE: z.enum(["true", "false"]).default("true").transform((v) => v === "true"),
+  /** Mail goes to the local SMTP fake, whose messages the admin can read: the default in development only. */
+  MAIL_FAKE: z.enum(["true", "false"]).default(isDev ? "true" : "false").transform((v) => v === "true"),
   /** Key material for participant identities at rest (AES-256-GCM; the key is SHA-256 of this string). */
   PARTICIPANT_DATA_KEY: isDev
     ? z.string().min(16).default("development-only-participant-data-key")

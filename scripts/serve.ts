@@ -11,6 +11,9 @@ import { availableParallelism } from "node:os";
 import { resolve } from "node:path";
 import next from "next";
 
+/** lib/auth/rate-limit.ts PEER_HEADER (not imported: this script loads before the app's modules). */
+const PEER_HEADER = "x-yawpoint-peer";
+
 const argv = process.argv.slice(2);
 const flag = (names: string[]): string | undefined => {
   const i = argv.findIndex((a) => names.includes(a));
@@ -25,7 +28,13 @@ async function serveHere(): Promise<void> {
   const app = next({ dev: false, hostname, port, dir: resolve(import.meta.dirname, "..") });
   const handle = app.getRequestHandler();
   await app.prepare(); // runs instrumentation.ts: a bad environment stops the process here, with its message
-  const server = createServer((req, res) => void handle(req, res));
+  // The connection's own peer address, for the rate limits (lib/auth/rate-limit.ts clientAddress);
+  // whatever a client sent under that name is replaced, so it cannot choose its address.
+  const server = createServer((req, res) => {
+    req.headers[PEER_HEADER] = req.socket.remoteAddress ?? "unknown";
+    for (let i = req.rawHeaders.length - 2; i >= 0; i -= 2) if (req.rawHeaders[i]!.toLowerCase() === PEER_HEADER) req.rawHeaders.splice(i, 2);
+    void handle(req, res);
+  });
   server.listen(port, hostname, () => {
     if (process.send) process.send("ready");
     else console.log(`Yawpoint serving on http://${hostname}:${port}`);

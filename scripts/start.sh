@@ -9,6 +9,9 @@ export PORT="${PORT:-3000}"
 export NEXTAUTH_URL="${NEXTAUTH_URL:-http://localhost:$PORT}"
 ensure_node_modules
 ensure_secret
+# Without a mail server of your own (SMTP_HOST), the demo's mail goes to the local fake, where the
+# admin reads it; with one, nothing is kept locally (MAIL_FAKE defaults to false outside development).
+if [ -z "${SMTP_HOST:-}" ]; then export MAIL_FAKE="${MAIL_FAKE:-true}"; fi
 npx tsx scripts/db.ts up
 npx tsx scripts/mail-fake.ts --daemon
 npx tsx scripts/seed.ts --quiet

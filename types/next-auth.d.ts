@@ -4,9 +4,11 @@ declare module "next-auth" {
   interface User {
     id: string;
     role: Role;
+    /** users.session_version at sign-in: a session with an older value is refused (lib/session.ts). */
+    sv: number;
   }
   interface Session {
-    user: { id: number; email: string; name: string; role: Role };
+    user: { id: number; email: string; name: string; role: Role; sv: number };
   }
 }
 
@@ -14,5 +16,6 @@ declare module "next-auth/jwt" {
   interface JWT {
     uid: number;
     role: Role;
+    sv?: number;
   }
 }

@@ -2,6 +2,7 @@ import type { Knex } from "knex";
 import { hashPassword } from "@/lib/auth/password";
 import { hashToken, newToken } from "@/lib/auth/tokens";
 import type { PasswordTokenRow } from "@/lib/data/rows";
+import { setUserPassword } from "@/lib/data/users";
 
 export const TOKEN_LIFETIME_MS = 60 * 60 * 1000;
 
@@ -35,7 +36,7 @@ export async function consumePasswordToken(db: Knex, token: string, password: st
     if (claimed !== 1) return null;
     const row = await trx<PasswordTokenRow>("password_tokens").where({ token_hash: hashToken(token) }).first();
     if (!row) return null;
-    await trx("users").where({ id: row.user_id }).update({ password_hash: passwordHash, updated_at: trx.fn.now(3) });
+    await setUserPassword(trx, row.user_id, passwordHash); // ends the user's existing sessions
     // Any other open tokens of this user stop working too.
     await trx("password_tokens").where({ user_id: row.user_id }).whereNull("used_at").update({ used_at: now });
     return row.user_id;

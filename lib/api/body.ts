@@ -45,3 +45,31 @@ async function readLimited(request: Request, limit: number): Promise<string> {
 export function parseParams<S extends z.ZodType>(schema: S, value: unknown): z.output<S> {
   return schema.parse(value);
 }
+
+/**
+ * Reads a multipart/form-data body into FormData, but never more than `limit` bytes of it
+ * (readFormLimited): the bytes are counted as they arrive, whatever Content-Length says or when
+ * it is missing (chunked), and reading stops at the limit.
+ * @throws AppError 413 past the limit, 400 when the body is not a readable form.
+ */
+export async function readFormLimited(request: Request, limit: number): Promise<FormData> {
+  if (!request.body) throw badRequest("The request has no body.");
+  let size = 0, exceeded = false;
+  const counted = request.body.pipeThrough(new TransformStream<Uint8Array, Uint8Array>({
+    transform(chunk, controller) {
+      size += chunk.byteLength;
+      if (size > limit) {
+        exceeded = true;
+        controller.error(tooLarge(`The body is over the ${limit} byte limit.`));
+        return;
+      }
+      controller.enqueue(chunk);
+    },
+  }));
+  try {
+    return await new Response(counted, { headers: { "content-type": request.headers.get("content-type") ?? "" } }).formData();
+  } catch {
+    if (exceeded) throw tooLarge(`The body is over the ${limit} byte limit.`);
+    throw badRequest("The upload could not be read as a form.");
+  }
+}

@@ -35,7 +35,8 @@ export async function assertStudyAccess(
   const u = requireUser(user);
   const study = await fetchStudy(q, studyId);
   if (!study) throw notFound("No such study.");
-  const teamRole = await fetchTeamRole(q, studyId, u.id);
+  // Only researchers are ever on a team; a membership left from an earlier role counts for nothing.
+  const teamRole = u.role === "researcher" ? await fetchTeamRole(q, studyId, u.id) : null;
   if (u.role === "reviewer" && need === "view" && study.status !== "draft") return { study, teamRole };
   if (u.role !== "researcher" || !teamRole) throw forbidden("You are not on this study's team.");
   const needed = need === "view" ? 1 : need === "edit" ? 2 : 3;

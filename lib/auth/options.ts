@@ -6,7 +6,8 @@ import { appendAudit } from "@/lib/data/audit";
 import { findUserRowByEmail } from "@/lib/data/users";
 import { env } from "@/lib/env";
 import { verifyPassword } from "./password";
-import { clientAddress, isSignInLimited, recordSignInAttempt } from "./rate-limit";
+import { clientAddress } from "./rate-limit";
+import { signInSucceeded } from "./signInLimits";
 import { roleSchema } from "./roles";
 
 const credentialsSchema = z.object({ email: z.string().trim().email().max(254), password: z.string().min(1).max(200) });
@@ -23,15 +24,14 @@ export const authOptions: NextAuthOptions = {
         const parsed = credentialsSchema.safeParse(credentials);
         if (!parsed.success) return null;
         const { email, password } = parsed.data;
-        const ip = clientAddress(req.headers ?? {});
-        // The route handler answers 429 before this point; this guards direct calls too.
-        if (await isSignInLimited(db, email, ip)) return null;
+        // The route handler (app/api/auth/[...nextauth]/route.ts) has counted this attempt against
+        // the account's and the address's limits before it reaches here (admitSignIn).
         const row = await findUserRowByEmail(db, email);
         const ok = await verifyPassword(password, row?.password_hash ?? null);
-        await recordSignInAttempt(db, email, ip, Boolean(row && ok && row.active));
         if (!row || !ok || !row.active) return null;
+        await signInSucceeded(db, email, clientAddress(req.headers ?? {}));
         await appendAudit(db, { actorUserId: row.id, actorLabel: row.email, action: "user.sign_in", details: {} });
-        return { id: String(row.id), email: row.email, name: row.name, role: roleSchema.parse(row.role) };
+        return { id: String(row.id), email: row.email, name: row.name, role: roleSchema.parse(row.role), sv: row.session_version };
       },
     }),
   ],
@@ -40,11 +40,12 @@ export const authOptions: NextAuthOptions = {
       if (user) {
         token.uid = Number(user.id);
         token.role = user.role;
+        token.sv = user.sv;
       }
       return token;
     },
     session({ session, token }) {
-      session.user = { id: token.uid, email: token.email ?? "", name: token.name ?? "", role: token.role };
+      session.user = { id: token.uid, email: token.email ?? "", name: token.name ?? "", role: token.role, sv: token.sv ?? -1 };
       return session;
     },
   },

@@ -1,29 +1,88 @@
+import { createHmac } from "node:crypto";
+import type { Knex } from "knex";
 import type { Queryable } from "@/lib/db";
+import { env } from "@/lib/env";
 
-/** Failed sign-ins allowed per account and address within the window, before 429. */
-export const SIGN_IN_LIMIT = { failures: 10, windowMinutes: 15 };
+/** A limit: at most `max` within each fixed window of `windowMs`. */
+export type Limit = { name: string; max: number; windowMs: number };
 
-export async function recordSignInAttempt(q: Queryable, email: string, ip: string, succeeded: boolean): Promise<void> {
-  await q("sign_in_attempts").insert({ email: email.trim().toLowerCase().slice(0, 254), ip: ip.slice(0, 64), succeeded });
+/** Sign-in attempts per account that may fail in 15 minutes; a success gives its attempt back. */
+export const SIGN_IN_ACCOUNT_LIMIT: Limit = { name: "sign-in account", max: 10, windowMs: 15 * 60_000 };
+/** Failed sign-ins per client address in 15 minutes (a lab behind one address shares it). */
+export const SIGN_IN_ADDRESS_LIMIT: Limit = { name: "sign-in address", max: 100, windowMs: 15 * 60_000 };
+/** Password-reset requests per account, and per address, in an hour. */
+export const RESET_ACCOUNT_LIMIT: Limit = { name: "reset account", max: 3, windowMs: 60 * 60_000 };
+export const RESET_ADDRESS_LIMIT: Limit = { name: "reset address", max: 10, windowMs: 60 * 60_000 };
+/** For the messages that quote it. */
+export const SIGN_IN_LIMIT = { failures: SIGN_IN_ACCOUNT_LIMIT.max, windowMinutes: SIGN_IN_ACCOUNT_LIMIT.windowMs / 60_000 };
+
+/**
+ * The bucket of what is limited (limitBucket): a keyed hash (HMAC-SHA-256 under the session
+ * secret) of the limit's name and the key, so the counters hold no e-mail or address.
+ */
+export function limitBucket(limit: Limit, key: string): string {
+  return createHmac("sha256", env.NEXTAUTH_SECRET).update(`${limit.name}\n${key.trim().toLowerCase()}`, "utf8").digest("hex");
 }
 
-/** True when the account + address pair has used up its failures in the window. */
-export async function isSignInLimited(q: Queryable, email: string, ip: string, now = new Date()): Promise<boolean> {
-  const since = new Date(now.getTime() - SIGN_IN_LIMIT.windowMinutes * 60_000);
-  const row = await q("sign_in_attempts")
-    .where({ email: email.trim().toLowerCase(), ip, succeeded: false })
-    .andWhere("at", ">=", since)
-    .count<{ n: number | string }[]>({ n: "*" })
-    .first();
-  return Number(row?.n ?? 0) >= SIGN_IN_LIMIT.failures;
+const windowOf = (limit: Limit, now: number): Date => new Date(Math.floor(now / limit.windowMs) * limit.windowMs);
+
+/**
+ * Counts one hit against a limit and says whether it is within (hitLimit): one atomic increment
+ * (INSERT … ON DUPLICATE KEY UPDATE) and a read of the count under the row lock it took, in one
+ * transaction, so of any number of parallel hits exactly `max` are within. Fixed windows.
+ * @returns the count including this hit, and whether it is within the limit.
+ */
+export async function hitLimit(db: Knex, limit: Limit, key: string, now = Date.now()): Promise<{ count: number; within: boolean }> {
+  const bucket = limitBucket(limit, key);
+  const start = windowOf(limit, now);
+  const count = await db.transaction(async (trx) => {
+    await trx.raw("INSERT INTO rate_limits (bucket, window_start, hits) VALUES (?, ?, 1) ON DUPLICATE KEY UPDATE hits = hits + 1", [bucket, start]);
+    const row = await trx("rate_limits").where({ bucket, window_start: start }).first<{ hits: number }>("hits");
+    return Number(row?.hits ?? 1);
+  });
+  return { count, within: count <= limit.max };
 }
 
-/** The client's address as the server saw it (first hop of X-Forwarded-For when behind a proxy). */
-export function clientAddress(headers: Headers | Record<string, string | string[] | undefined>): string {
+/** Gives one hit back (a sign-in that succeeded was no failure). */
+export async function returnHit(q: Queryable, limit: Limit, key: string, now = Date.now()): Promise<void> {
+  await q("rate_limits").where({ bucket: limitBucket(limit, key), window_start: windowOf(limit, now) }).andWhere("hits", ">", 0).decrement("hits", 1);
+}
+
+/** Whether the limit is used up already, without counting a hit. */
+export async function isLimited(q: Queryable, limit: Limit, key: string, now = Date.now()): Promise<boolean> {
+  const row = await q("rate_limits").where({ bucket: limitBucket(limit, key), window_start: windowOf(limit, now) }).first<{ hits: number } | undefined>("hits");
+  return Number(row?.hits ?? 0) >= limit.max;
+}
+
+/** Drops counters of windows that ended more than a day ago (housekeeping). */
+export async function sweepRateLimits(q: Queryable, now = Date.now()): Promise<number> {
+  return q("rate_limits").where("window_start", "<", new Date(now - 24 * 60 * 60_000)).delete();
+}
+
+/** The header scripts/serve.ts sets to the connection's peer address (any such header a client sends is replaced). */
+export const PEER_HEADER = "x-yawpoint-peer";
+
+type HeaderSource = Headers | Record<string, string | string[] | undefined>;
+
+/**
+ * The client's address (clientAddress), trusting X-Forwarded-For only as far as configured.
+ *
+ * With `hops` trusted proxies in front (TRUSTED_PROXY_HOPS), each appending the address it
+ * received from, the client is the `hops`-th address from the right of [X-Forwarded-For…, peer];
+ * addresses further left were written by the client and are ignored. With 0 hops X-Forwarded-For
+ * is ignored altogether and the connection's own peer counts. Source: RFC 7239 §5.2 and the
+ * de-facto X-Forwarded-For convention (common practice: count trusted hops from the right).
+ * Cost: O(header length). @throws never.
+ * @example clientAddress(new Headers({ "x-forwarded-for": "198.51.100.9, 203.0.113.5", "x-yawpoint-peer": "10.0.0.2" }), 1) // "203.0.113.5"
+ */
+export function clientAddress(headers: HeaderSource, hops: number = env.TRUSTED_PROXY_HOPS): string {
   const get = (name: string): string | undefined => {
     if (headers instanceof Headers) return headers.get(name) ?? undefined;
     const v = headers[name];
-    return Array.isArray(v) ? v[0] : v;
+    return Array.isArray(v) ? v.join(",") : v;
   };
-  return get("x-forwarded-for")?.split(",")[0]?.trim() || get("x-real-ip") || "local";
+  const peer = get(PEER_HEADER)?.trim() || "unknown";
+  if (hops <= 0) return peer;
+  const chain = [...(get("x-forwarded-for") ?? "").split(",").map((s) => s.trim()).filter(Boolean), peer];
+  return chain[Math.max(0, chain.length - 1 - hops)]!;
 }

@@ -6,6 +6,7 @@ export type UserRow = {
   password_hash: string | null;
   role: string;
   active: number | boolean;
+  session_version: number;
   created_at: Date;
   updated_at: Date;
 };

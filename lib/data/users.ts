@@ -2,7 +2,7 @@ import type { Queryable } from "@/lib/db";
 import { roleSchema, type Role } from "@/lib/auth/roles";
 import type { UserRow } from "./rows";
 
-export type User = { id: number; email: string; name: string; role: Role; active: boolean; hasPassword: boolean; createdAt: Date };
+export type User = { id: number; email: string; name: string; role: Role; active: boolean; hasPassword: boolean; createdAt: Date; sessionVersion: number };
 
 export function toUser(row: UserRow): User {
   return {
@@ -13,6 +13,7 @@ export function toUser(row: UserRow): User {
     active: Boolean(row.active),
     hasPassword: row.password_hash !== null,
     createdAt: row.created_at,
+    sessionVersion: Number(row.session_version ?? 0),
   };
 }
 
@@ -45,10 +46,18 @@ export async function insertUser(
   return Number(id);
 }
 
+/**
+ * Sets a user's role and active flag; a deactivation or a role change raises the session version,
+ * which ends the user's existing sessions (lib/session.ts).
+ */
 export async function updateUserRole(q: Queryable, id: number, role: Role, active: boolean): Promise<number> {
-  return q("users").where({ id }).update({ role, active, updated_at: q.fn.now(3) });
+  return q("users").where({ id }).update({
+    session_version: q.raw("IF(role <> ? OR ? = 0, session_version + 1, session_version)", [role, active ? 1 : 0]),
+    role, active, updated_at: q.fn.now(3),
+  });
 }
 
+/** Sets a password and ends every existing session of the user (session version raised). */
 export async function setUserPassword(q: Queryable, id: number, passwordHash: string): Promise<void> {
-  await q("users").where({ id }).update({ password_hash: passwordHash, updated_at: q.fn.now(3) });
+  await q("users").where({ id }).update({ password_hash: passwordHash, session_version: q.raw("session_version + 1"), updated_at: q.fn.now(3) });
 }

@@ -35,7 +35,7 @@ describe("migrations", () => {
   it("go up, all the way down, and up again", async () => {
     cli("migrate:latest");
     const up = await tables();
-    expect(up).toEqual(expect.arrayContaining(["users", "roles", "study_members", "audit_log", "password_tokens", "outgoing_mail", "studies", "sign_in_attempts"]));
+    expect(up).toEqual(expect.arrayContaining(["users", "roles", "study_members", "audit_log", "password_tokens", "outgoing_mail", "studies", "rate_limits"]));
     expect(await db("roles").pluck("name")).toEqual(expect.arrayContaining(["admin", "researcher", "reviewer"]));
     cli("migrate:rollback", "--all");
     expect(await tables()).toEqual([]);

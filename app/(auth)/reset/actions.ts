@@ -1,23 +1,24 @@
 "use server";
 
 import { consumePasswordToken } from "@/lib/accounts/password-tokens";
-import { requestPasswordReset } from "@/lib/accounts/users";
+import { headers } from "next/headers";
+import { startPasswordReset } from "@/lib/accounts/users";
+import { clientAddress } from "@/lib/auth/rate-limit";
 import { db } from "@/lib/db";
 import { appendAudit } from "@/lib/data/audit";
 import { resetPasswordSchema, resetRequestSchema } from "@/lib/schemas/users";
+
+/** The one answer to every reset request. */
+const RESET_REQUESTED = "If an account uses this address, a link to reset its password is on its way. It works for one hour. (At most three links an hour are sent.)";
 
 export type FormState = { ok?: boolean; message?: string; errors?: Record<string, string[] | undefined> };
 
 export async function requestResetAction(_prev: FormState, form: FormData): Promise<FormState> {
   const parsed = resetRequestSchema.safeParse({ email: form.get("email") });
   if (!parsed.success) return { errors: { email: ["Enter an e-mail address."] } };
-  try {
-    await requestPasswordReset(db, parsed.data.email);
-  } catch (e) {
-    console.error(e);
-    return { message: "The message could not be sent. Try again in a minute." };
-  }
-  return { ok: true, message: "If an account uses this address, a link to reset its password is on its way. It works for one hour." };
+  // The same words, after the same work, whether or not the account exists (startPasswordReset).
+  await startPasswordReset(db, parsed.data.email, clientAddress(await headers()));
+  return { ok: true, message: RESET_REQUESTED };
 }
 
 export async function setPasswordAction(_prev: FormState, form: FormData): Promise<FormState> {

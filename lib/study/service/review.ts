@@ -2,6 +2,7 @@ import type { Knex } from "knex";
 import type { Queryable } from "@/lib/db";
 import { assertCanEditStudy, assertCanViewStudy, requireRole, type SessionUser } from "@/lib/auth/guards";
 import { sha256Text } from "@/lib/consent/sha256Text";
+import { fetchTeamRole } from "@/lib/data/studies";
 import { conflict, forbidden, unprocessable } from "@/lib/errors";
 import { decisionSchema } from "../schemas";
 import { protocolChanges } from "../protocolChanges";
@@ -107,7 +108,8 @@ export async function decideReview(db: Knex, user: SessionUser | null, studyId: 
   const v = decisionSchema.parse(input);
   const open = await db<StudyReviewRow>("study_reviews").where({ study_id: studyId, status: "submitted" }).orderBy("id", "desc").first();
   if (!open || study.status === "closed") throw conflict("This study has no submission waiting for a decision.");
-  if (teamRole !== null || study.ownerId === reviewer.id || open.submitted_by === reviewer.id) throw forbidden("You cannot decide on a study you are part of.");
+  const member = teamRole ?? (await fetchTeamRole(db, studyId, reviewer.id));
+  if (member !== null || study.ownerId === reviewer.id || open.submitted_by === reviewer.id) throw forbidden("You cannot decide on a study you are part of.");
   const approved = v.decision === "approve";
   await db.transaction(async (trx) => {
     const n = await trx("study_reviews").where({ id: open.id, status: "submitted" }).update({ status: approved ? "approved" : "returned", decided_by: reviewer.id, decided_at: trx.fn.now(3), comment: v.comment || null });

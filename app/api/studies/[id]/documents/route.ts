@@ -1,4 +1,4 @@
-import { parseParams } from "@/lib/api/body";
+import { parseParams, readFormLimited } from "@/lib/api/body";
 import { route } from "@/lib/api/respond";
 import { assertCanEditStudy, assertCanViewStudy } from "@/lib/auth/guards";
 import { db } from "@/lib/db";
@@ -25,12 +25,8 @@ export const POST = route(async (request: Request, context: Ctx) => {
   if (!(request.headers.get("content-type") ?? "").toLowerCase().startsWith("multipart/form-data")) throw unsupportedType("Send the file as multipart/form-data.");
   // Refuse on the declared size before reading anything (the form's own overhead is allowed for).
   if (Number(request.headers.get("content-length") ?? "0") > DOCUMENT_LIMIT_BYTES + 64 * 1024) throw tooLarge("The file is over the 10 MB limit.");
-  let form: FormData;
-  try {
-    form = await request.formData();
-  } catch {
-    throw badRequest("The upload could not be read as a form.");
-  }
+  // counted as it arrives: a body without Content-Length (chunked) cannot grow past the limit either
+  const form = await readFormLimited(request, DOCUMENT_LIMIT_BYTES + 64 * 1024);
   const file = form.get("file");
   if (!(file instanceof File)) throw badRequest("Attach the file in the field \"file\".");
   if (file.size > DOCUMENT_LIMIT_BYTES) throw tooLarge("The file is over the 10 MB limit.");
