@@ -29,6 +29,7 @@ export function StudyMetaForm({ studyId, initial }: { studyId: number; initial: 
       <h2>Study details</h2>
       <Field id="meta-title" label="Title" error={errors.title?.message}><input id="meta-title" className="input" {...register("title")} /></Field>
       <Field id="meta-summary" label="Summary" error={errors.summary?.message}><textarea id="meta-summary" className="input" rows={4} {...register("summary")} /></Field>
+      <p className="text-xs text-slate-600">Title and summary are what participants read on the information page, so they are part of the protocol: after approval a change is an amendment (Review tab).</p>
       <Field id="meta-protocol" label="Ethics protocol number" error={errors.protocolNumber?.message}><input id="meta-protocol" className="input" {...register("protocolNumber")} /></Field>
       {errors.root && <p className="field-error" role="alert">{errors.root.message}</p>}
       {ok && <p className="notice" role="status">Saved.</p>}

@@ -23,6 +23,17 @@ export async function readJson<S extends z.ZodType>(request: Request, schema: S)
   return schema.parse(value);
 }
 
+/**
+ * An HTML form's urlencoded body (application/x-www-form-urlencoded), read up to `limit` bytes.
+ * @throws AppError 415 (another content type), 413 (over the limit).
+ */
+export async function readForm(request: Request, limit = 4096): Promise<URLSearchParams> {
+  const type = request.headers.get("content-type") ?? "";
+  if (!type.toLowerCase().startsWith("application/x-www-form-urlencoded")) throw unsupportedType("Send the form as application/x-www-form-urlencoded.");
+  if (Number(request.headers.get("content-length") ?? "0") > limit) throw tooLarge(`The form is over the ${limit} byte limit.`);
+  return new URLSearchParams(await readLimited(request, limit));
+}
+
 async function readLimited(request: Request, limit: number): Promise<string> {
   if (!request.body) return "";
   const reader = request.body.getReader();

@@ -223,6 +223,22 @@ describe("pilots", () => {
   });
 });
 
+describe("simulated pilots of other techniques", () => {
+  it("run a stick and a motion condition in view mode (the simulated participant of every technique)", async () => {
+    const studyId = await insertStudy(db, { title: `Simulated view ${Date.now()}`, summary: "", protocolNumber: null, ownerId: owner.id });
+    await saveDesign(db, owner, studyId, {
+      factors: [{ name: "technique", levels: [{ label: "motion", config: { technique: "motion" } }, { label: "stick", config: { technique: "stick" } }] }],
+      task: { type: "ring", displayMode: "view", unit: "deg-view", amplitudes: [20], widths: [4], targetsPerRing: 7, practiceSequences: 0 },
+      counterbalancing: { method: "williams", seed: 2 },
+    });
+    await saveConsentDraft(db, owner, studyId, { body: CONSENT });
+    const summary = await runSimulatedPilot(db, owner, studyId, { participants: 1, spread: 0, include: true, seed: 3 });
+    expect(summary.movements).toBe(2 * 7);
+    const techniques = (await db("trials as t").join("participants as p", "p.id", "t.participant_id").where("p.study_id", studyId).distinct("t.condition")).map((r: { condition: string }) => r.condition).sort();
+    expect(techniques).toEqual(["motion", "stick"]);
+  });
+});
+
 describe("exclusions", () => {
   it("leave a participant's or a sequence's movements out of results and archives, are listed with reasons, and can be taken back", async () => {
     const studyId = await recruitingStudy(FOUR);

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { z } from "zod";
-import { JSON_BODY_LIMIT, readJson } from "@/lib/api/body";
+import { JSON_BODY_LIMIT, readForm, readJson } from "@/lib/api/body";
 import { toErrorResponse } from "@/lib/api/respond";
 import { AREA_ROLES, rolesForPath } from "@/lib/auth/roles";
 import { clientAddress } from "@/lib/auth/rate-limit";
@@ -20,6 +20,19 @@ async function failure(p: Promise<unknown>): Promise<{ status: number; body: { e
   }
   throw new Error("expected a failure");
 }
+
+describe("readForm", () => {
+  const form = (body: string, type = "application/x-www-form-urlencoded", length?: number) =>
+    new Request("http://x/", { method: "POST", body, headers: { "content-type": type, ...(length !== undefined ? { "content-length": String(length) } : {}) } });
+  it("reads a urlencoded form (WHATWG URL: application/x-www-form-urlencoded, '+' is a space)", async () => {
+    expect((await readForm(form("panel_id=AB+C%26D&x=1"))).get("panel_id")).toBe("AB C&D");
+  });
+  it("refuses another content type (415) and a body over the limit (413), streamed or declared", async () => {
+    await expect(readForm(form("{}", "application/json"))).rejects.toMatchObject({ status: 415 });
+    await expect(readForm(form("a=" + "x".repeat(5000)))).rejects.toMatchObject({ status: 413 });
+    await expect(readForm(form("a=1", undefined, 10_000))).rejects.toMatchObject({ status: 413 });
+  });
+});
 
 describe("readJson", () => {
   it("parses and validates a good body", async () => {

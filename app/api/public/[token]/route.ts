@@ -1,5 +1,6 @@
 import { cookies } from "next/headers";
 import { z } from "zod";
+import { readForm } from "@/lib/api/body";
 import { db } from "@/lib/db";
 import { AppError } from "@/lib/errors";
 import { PANEL_ID_PATTERN, rememberedVisit, visitorCookieName } from "@/lib/recruitment/publicVisit";
@@ -31,20 +32,19 @@ const page = (status: number, text: string, back?: string | null) =>
 export async function POST(request: Request, context: Ctx): Promise<Response> {
   const parsed = tokenSchema.safeParse((await context.params).token);
   if (!parsed.success) return page(404, "This link is not valid.");
-  if (Number(request.headers.get("content-length") ?? "0") > FORM_LIMIT) return page(413, "The request is too large.");
   const study = await studyOfPublicLink(db, parsed.data);
   if (!study) return page(404, "This link is not valid.");
   const jar = await cookies();
   const resumed = await rememberedVisit(db, study.id, jar.get(visitorCookieName(study.id))?.value);
   if (resumed) return new Response(null, { status: 303, headers: { location: `/s/${resumed}`, "cache-control": "no-store" } });
-  let panelId: string | null = null;
+  let form: URLSearchParams;
   try {
-    const text = (await request.text()).slice(0, FORM_LIMIT);
-    const raw = new URLSearchParams(text).get("panel_id")?.trim() ?? "";
-    panelId = PANEL_ID_PATTERN.test(raw) ? raw : null;
-  } catch {
-    panelId = null;
+    form = await readForm(request, FORM_LIMIT);
+  } catch (e) {
+    return page(e instanceof AppError ? e.status : 400, "This request is not the study's Start form.");
   }
+  const raw = form.get("panel_id")?.trim() ?? "";
+  const panelId = PANEL_ID_PATTERN.test(raw) ? raw : null;
   try {
     const p = await visitPublicLink(db, parsed.data, { panelId });
     jar.set(visitorCookieName(study.id), p.token, { httpOnly: true, sameSite: "lax", secure: request.url.startsWith("https:"), path: "/", maxAge: 30 * 24 * 3600 });
