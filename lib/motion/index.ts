@@ -7,6 +7,7 @@ export {
 export { presets, presetNames, presetConfig, type PresetName } from "./presets";
 export { createMotionEngine, LATENCY_QUEUE_CAPACITY, type MotionEngine, type MotionOutput } from "./engine";
 export * from "./stages";
+export { moveShownPosition, type ShownPosition, type CursorBounds } from "./shownPosition";
 export { parseSampleCsv, sampleFromTable, formatSampleCsv, SampleCsvError, sampleColumns, type SampleTable, type SampleColumn } from "./csv";
 export * from "./frames";
 export * from "./gain";

@@ -3,11 +3,18 @@ import { mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
+import { promisify } from "node:util";
+import { execFile } from "node:child_process";
+import { formatSampleCsv } from "./csvFormat";
+import type { TransferConfigInput } from "./config";
+import { simulateSequence } from "./simulate/participant";
+import { ringAmplitude, ringTargets, ringVisitingOrder } from "../task";
 
 // The replay CLI as interfaces.md fixes it: `replay --config FILE.json SAMPLES.csv` → t_ms,yaw_deg,pitch_deg
 // (view) or t_ms,x_px,y_px (cursor); bad input → exit 2, one line naming file, line and column.
 const dir = mkdtempSync(join(tmpdir(), "replay-"));
-const run = (args: string[]) => spawnSync(process.execPath, ["--import", "tsx", "--no-warnings", "experiments/cli/replay.ts", ...args], { encoding: "utf8", cwd: process.cwd() });
+// through the launcher `npm run replay` uses (a bundle of experiments/cli/replay.ts, rebuilt when a source changes)
+const run = (args: string[]) => spawnSync(process.execPath, ["--no-warnings", "experiments/cli/run.mjs", "replay", ...args], { encoding: "utf8", cwd: process.cwd() });
 const file = (name: string, text: string) => {
   const p = join(dir, name);
   writeFileSync(p, text);
@@ -63,5 +70,76 @@ describe("replay CLI", { timeout: 30_000 }, () => {
     const bad = run(["--config", file("c4.json", "{}"), "--start", "3", samples]);
     expect(bad.status).toBe(2);
     expect(bad.stderr).toMatch(/^replay: --start needs two numbers X,Y, got "3"/);
+  });
+});
+
+describe("replay CLI: the cursor kept in the task area (--bounds W,H), as the runner keeps it", { timeout: 30_000 }, () => {
+  it("stops the cursor at the area's edge; view mode ignores the bounds", () => {
+    // W3C axes (science.md §7): 30 deg/s about y for 0.1 s is a 3° turn to the left, at 10 px per
+    // degree 30 px, from x = 10 that would be x = −20: the edge stops it at 0; 10 deg/s about x
+    // tilts the top edge towards the viewer, 1° down, +10 px
+    const kept = run(["--config", file("cb.json", '{ "displayMode": "cursor", "pixelsPerDegree": 10 }'), "--start", "10,10", "--bounds", "500,300", samples]);
+    expect(kept.status).toBe(0);
+    expect(kept.stdout).toBe("t_ms,x_px,y_px\n0,10,10\n100,0,20\n200,0,20\n");
+    const view = run(["--config", file("vb.json", '{ "gain": 6 }'), "--bounds=5,5", samples]);
+    expect(view.stdout).toBe("t_ms,yaw_deg,pitch_deg\n0,0,0\n100,-18,-6\n200,-18,-6\n");
+  });
+  it("a finger put down after the edge stopped a drag brings the cursor under the finger (the engine is told where the edge left it)", () => {
+    const touch = file("tb.csv", "t_ms,gyro_x,gyro_y,gyro_z,pointer_dx,pointer_dy,pointer_x,pointer_y\n0,0,0,0,,,,\n10,0,0,0,-50,0,,\n20,0,0,0,,,50,10\n");
+    const r = run(["--config", file("tbc.json", '{ "technique": "touch", "displayMode": "cursor" }'), "--start", "10,10", "--bounds", "100,100", touch]);
+    expect(r.stdout).toBe("t_ms,x_px,y_px\n0,10,10\n10,0,10\n20,50,10\n");
+  });
+  it("a bad --bounds → exit 2, one line, nothing on stdout", () => {
+    for (const bad of ["0,100", "100", "a,b"]) {
+      const r = run(["--config", file("bb.json", "{}"), "--bounds", bad, samples]);
+      expect(r.status).toBe(2);
+      expect(r.stdout).toBe("");
+      expect(r.stderr.trim().split("\n")).toHaveLength(1);
+      expect(r.stderr).toMatch(/^replay: --bounds needs /);
+    }
+  });
+});
+
+describe("replay CLI reproduces every technique's output, both display modes", { timeout: 120_000 }, () => {
+  // The simulated participant's stream (each technique's live fields: gyroscope and accelerometer,
+  // stick, pointer movement, touch positions, buttons, selection marks) through the CLI as a
+  // researcher runs it: the rows marked `selected` must give the selection points the participant
+  // logged, within the issue's tolerance for the browser (0.5 px, 0.05°). A round trip (the stream
+  // must carry every input the engine used), not an outside reference.
+  const runAsync = promisify(execFile);
+  const n = 9;
+  const cursorRing = ringTargets(n, 400, { x: 640, y: 400 });
+  const viewRing = ringTargets(n, 40, { x: 0, y: 0 }).map((p) => ({ x: p.x, y: -p.y }));
+  const tasks = {
+    cursor: { targets: ringVisitingOrder(n).map((i) => cursorRing[i]!), amplitude: ringAmplitude(n, 400), width: 40 },
+    view: { targets: ringVisitingOrder(n).map((i) => viewRing[i]!), amplitude: ringAmplitude(n, 40), width: 4 },
+  } as const;
+  const techniques: TransferConfigInput[] = [
+    { technique: "motion", frame: "gravity", gain: 3, smoothingTimeMs: 30, addedLatencyMs: 20 },
+    { technique: "stick" },
+    { technique: "motion+stick", stickMode: "heading", frame: "adaptive", gain: 2 },
+    { technique: "motion+touch", gain: 1.5, pointerDegreesPerPixel: 0.25, pointerCursorGain: 1.5 },
+    { technique: "mouse", pointerCursorGain: 1.5, pointerDegreesPerPixel: 0.15 },
+    { technique: "touch", pointerDegreesPerPixel: 0.2 },
+    { technique: "tilt-rate", gravityFilterTimeMs: 300, invertVertical: true },
+  ];
+  it("selection points within 0.5 px (cursor) or 0.05° (view)", async () => {
+    const jobs = (["cursor", "view"] as const).flatMap((displayMode) =>
+      techniques.map(async (base, k) => {
+        const config = { ...base, displayMode, pixelsPerDegree: 12 };
+        const sim = simulateSequence(tasks[displayMode], config, { seed: 40 + k, sensor: "phone", restMs: 300 });
+        const name = `${base.technique}-${displayMode}`;
+        const stream = file(`${name}.csv`, formatSampleCsv(sim.samples));
+        const args = ["--config", file(`${name}.json`, JSON.stringify(config)), "--start", `${sim.start.x},${sim.start.y}`, "--bounds", "1280,800", stream];
+        const { stdout } = await runAsync(process.execPath, ["--no-warnings", "experiments/cli/run.mjs", "replay", ...args], { maxBuffer: 64 << 20 });
+        const rows = stdout.trim().split("\n").slice(1).map((l) => l.split(",").map(Number));
+        const marked = sim.samples.flatMap((s, i) => (s.selected === 1 ? [rows[i]!] : []));
+        return { name, tolerance: displayMode === "cursor" ? 0.5 : 0.05, marked, selections: sim.selections };
+      }),
+    );
+    for (const { name, tolerance, marked, selections } of await Promise.all(jobs)) {
+      expect(marked, name).toHaveLength(selections.length);
+      marked.forEach((row, i) => expect(Math.hypot(row[1]! - selections[i]!.x, row[2]! - selections[i]!.y), `${name}, selection ${i}`).toBeLessThan(tolerance));
+    }
   });
 });
