@@ -4,6 +4,8 @@
 //    through an export getter). Each configuration of `configurations` once, to find the most
 //    expensive; then 10 M samples × BENCH_RUNS through it: ns per sample (median), heap
 //    before/after (after GC), garbage collections during the timed loop (none = no allocation).
+//    ns per sample twice: wall clock, and this process's CPU time (user + system), which on a
+//    shared, loaded machine leaves out the time the process waited for a core.
 // 2. Replay of a 1 M-sample CSV end to end, started as `npm run replay` starts it
 //    (`node experiments/cli/run.mjs replay`, a fresh process each run, output to /dev/null): wall
 //    time, median of several runs; also the in-process parts and the start-up alone.
@@ -66,7 +68,8 @@ for (let i = 0; i < POOL; i++) {
 const CHUNK = 500_000;
 
 /** Samples start..end through the engine, timed (a plain function: nothing here lives across an await). */
-function timedChunk(engine: ReturnType<typeof createMotionEngine>, s: MotionSample, start: number, end: number, sum: { checksum: number }): bigint {
+function timedChunk(engine: ReturnType<typeof createMotionEngine>, s: MotionSample, start: number, end: number, sum: { checksum: number; cpuUs: number }): bigint {
+  const c0 = process.cpuUsage();
   const t0 = process.hrtime.bigint();
   for (let i = start; i < end; i++) {
     const k = i & (POOL - 1);
@@ -86,14 +89,17 @@ function timedChunk(engine: ReturnType<typeof createMotionEngine>, s: MotionSamp
     const o = engine.push(s);
     if (o !== null) sum.checksum += o.dx;
   }
-  return process.hrtime.bigint() - t0;
+  const wall = process.hrtime.bigint() - t0;
+  const c = process.cpuUsage(c0);
+  sum.cpuUs += c.user + c.system;
+  return wall;
 }
 /**
  * n samples through the engine in chunks of CHUNK; the event loop turns between chunks (outside
  * the timed part) so that garbage-collection entries reach the observer: a loop that never yields
  * would see none.
  */
-async function engineRun(config: TransferConfigInput, n: number): Promise<{ nsPerSample: number; heapBefore: number; heapAfter: number; gcs: number; checksum: number }> {
+async function engineRun(config: TransferConfigInput, n: number): Promise<{ nsPerSample: number; cpuNsPerSample: number; heapBefore: number; heapAfter: number; gcs: number; checksum: number }> {
   const engine = createMotionEngine(config);
   const s: MotionSample = { tMs: 0, gyroX: 0, gyroY: 0, gyroZ: 0, accelX: 0, accelY: 9.8, accelZ: 0, stickX: 0, stickY: 0, buttons: 0, pointerDx: 0, pointerDy: 0, pointerX: 0, pointerY: 0, screenAngleDeg: 90 };
   for (let i = 0; i < 100_000; i++) {
@@ -105,7 +111,7 @@ async function engineRun(config: TransferConfigInput, n: number): Promise<{ nsPe
   let gcs = 0;
   const obs = new PerformanceObserver((list) => (gcs += list.getEntries().length));
   obs.observe({ entryTypes: ["gc"] });
-  const sum = { checksum: 0 };
+  const sum = { checksum: 0, cpuUs: 0 };
   let elapsed = 0n;
   for (let start = 0; start < n; start += CHUNK) {
     elapsed += timedChunk(engine, s, start, Math.min(n, start + CHUNK), sum);
@@ -114,7 +120,7 @@ async function engineRun(config: TransferConfigInput, n: number): Promise<{ nsPe
   await new Promise((resolve) => setTimeout(resolve, 20));
   obs.disconnect();
   gc();
-  return { nsPerSample: Number(elapsed) / n, heapBefore, heapAfter: process.memoryUsage().heapUsed, gcs, checksum: sum.checksum };
+  return { nsPerSample: Number(elapsed) / n, cpuNsPerSample: (sum.cpuUs * 1000) / n, heapBefore, heapAfter: process.memoryUsage().heapUsed, gcs, checksum: sum.checksum };
 }
 
 function writeCsv(path: string, rows: number): void {
@@ -137,9 +143,9 @@ console.log(`motion engine (bundled), each configuration once, 2,000,000 samples
 let expensiveName = "", slowest = 0;
 for (const [name, config] of Object.entries(configurations)) {
   const r = await engineRun(config, 2_000_000);
-  console.log(`  ${name}: ${r.nsPerSample.toFixed(1)} ns/sample, GCs ${r.gcs}`);
-  if (r.nsPerSample > slowest) {
-    slowest = r.nsPerSample;
+  console.log(`  ${name}: ${r.nsPerSample.toFixed(1)} ns/sample (CPU ${r.cpuNsPerSample.toFixed(1)}), GCs ${r.gcs}`);
+  if (r.cpuNsPerSample > slowest) {
+    slowest = r.cpuNsPerSample;
     expensiveName = name;
   }
 }
@@ -149,10 +155,10 @@ const results = [];
 for (let r = 0; r < runs; r++) {
   const res = await engineRun(expensive, N);
   results.push(res);
-  console.log(`  run ${r + 1}: ${res.nsPerSample.toFixed(1)} ns/sample, heap ${(res.heapBefore / 1e6).toFixed(2)} → ${(res.heapAfter / 1e6).toFixed(2)} MB, GCs during run: ${res.gcs}`);
+  console.log(`  run ${r + 1}: ${res.nsPerSample.toFixed(1)} ns/sample (CPU ${res.cpuNsPerSample.toFixed(1)}), heap ${(res.heapBefore / 1e6).toFixed(2)} → ${(res.heapAfter / 1e6).toFixed(2)} MB, GCs during run: ${res.gcs}`);
 }
-const medNs = median(results.map((r) => r.nsPerSample));
-console.log(`  median ${medNs.toFixed(1)} ns/sample (budget 1000 ns: ratio ${(medNs / 1000).toFixed(3)}); median heap growth ${(median(results.map((r) => r.heapAfter - r.heapBefore)) / 1e3).toFixed(1)} kB; median GCs ${median(results.map((r) => r.gcs))}; load average ${readFileSync("/proc/loadavg", "utf8").split(" ").slice(0, 3).join(" ")}`);
+const medNs = median(results.map((r) => r.nsPerSample)), medCpuNs = median(results.map((r) => r.cpuNsPerSample));
+console.log(`  median ${medNs.toFixed(1)} ns/sample wall (budget 1000 ns: ratio ${(medNs / 1000).toFixed(3)}), ${medCpuNs.toFixed(1)} ns/sample CPU (ratio ${(medCpuNs / 1000).toFixed(3)}); median heap growth ${(median(results.map((r) => r.heapAfter - r.heapBefore)) / 1e3).toFixed(1)} kB; median GCs ${median(results.map((r) => r.gcs))}; load average ${readFileSync("/proc/loadavg", "utf8").split(" ").slice(0, 3).join(" ")}`);
 
 const dir = mkdtempSync(join(tmpdir(), "bench-motion-"));
 const csv = join(dir, "samples.csv"), cfg = join(dir, "config.json");
