@@ -173,6 +173,46 @@ describe("fine-aim smoothing preserves the total displacement of a movement from
   });
 });
 
+describe("fine-aim smoothing adds no movement after the hand stops (the issue's worked case)", () => {
+  // A device turned at 100 deg/s for 200 ms and then held still has turned 20° (rate × time); at
+  // gain 1 in view mode the view must turn 20°, smoothed or not. Sampled at 200 Hz (5 ms), the
+  // rate at which the defect's figures come out: a smoother whose state follows the full rate (the
+  // defect, written out below from its description) delivers 23.96° at τ = 40 ms and 28.58° at
+  // τ = 100 ms, because what it holds when the hand stops is still played out afterwards.
+  const dtMs = 5, turnMs = 200, tailMs = 3000;
+  const samples: MotionSample[] = [];
+  for (let t = 0; t <= turnMs + tailMs; t += dtMs) {
+    // upright device (W3C: y up the screen); a negative rate about y is a right turn (right-hand rule)
+    samples.push({ tMs: t, gyroX: 0, gyroY: t > 0 && t <= turnMs ? -100 : 0, gyroZ: 0, accelX: 0, accelY: 9.8, accelZ: 0 });
+  }
+  /** The defect: state += α(x − state); output = w·x + (1 − w)·state, w = 1 at and above 10 deg/s. */
+  const defectTotal = (tauMs: number): number => {
+    let state = 0, total = 0;
+    for (const s of samples.slice(1)) {
+      const x = -(s.gyroY as number), w = Math.min(1, x / 10), a = dtMs / (tauMs + dtMs);
+      state += a * (x - state);
+      total += (w * x + (1 - w) * state) * (dtMs / 1000);
+    }
+    return total;
+  };
+  it("the defect's figures come out of this very stream: 20.00°, 23.96°, 28.58°", () => {
+    expect(defectTotal(0).toFixed(2)).toBe("20.00");
+    expect(defectTotal(40).toFixed(2)).toBe("23.96");
+    expect(defectTotal(100).toFixed(2)).toBe("28.58");
+  });
+  it("the engine turns the view 20° at τ = 0, 40 and 100 ms, and nothing once the hand has stopped long enough", () => {
+    for (const smoothingTimeMs of [0, 40, 100]) {
+      const e = createMotionEngine({ technique: "motion", displayMode: "view", frame: "device", deviceHorizontalAxis: "screen-up", gain: 1, gainCurve: "constant", smoothingTimeMs, smoothingSpeedDegPerS: 10 });
+      const total = totalOutput(e.push, samples);
+      expect(total.x).toBeCloseTo(20, 9);
+      expect(total.y).toBe(0);
+      // the smoother empties: 2 s after the stop a further still sample moves (almost) nothing
+      const after = e.push({ ...samples[samples.length - 1]!, tMs: turnMs + tailMs + dtMs })!;
+      expect(Math.abs(after.dx)).toBeLessThan(1e-9);
+    }
+  });
+});
+
 describe("tilt-rate and motion agree in sign on both axes (a virtual device in three.js)", () => {
   // W3C Device Orientation and Motion: z points out of the screen towards the viewer, so a
   // negative turn about x tilts the top edge away and a negative turn about z lowers the right edge.
