@@ -1,6 +1,7 @@
 "use client";
 import { useEffect, useState } from "react";
 import { consentBlocks } from "@/lib/runner/consent";
+import { FINAL_CHOICES, MAX_COMMENT_CHARS } from "@/lib/runner/finalChoices";
 import type { StudyDesign } from "@/lib/study/design";
 
 export function InfoStep(props: { title: string; summary: string; compensation: string; viewMode: boolean; onNext: () => void }) {
@@ -131,8 +132,6 @@ export function ConditionQuestionnaire(props: { items: StudyDesign["perCondition
   );
 }
 
-const AGE_BANDS = ["18–24", "25–34", "35–44", "45–54", "55–64", "65 or older", "prefer not to say"];
-
 export function FinalQuestionnaire(props: { ask: StudyDesign["finalQuestionnaire"]; busy: boolean; onSubmit: (a: Answer[]) => void }) {
   const [age, setAge] = useState("");
   const [hand, setHand] = useState("");
@@ -160,12 +159,12 @@ export function FinalQuestionnaire(props: { ask: StudyDesign["finalQuestionnaire
       props.onSubmit(a);
     }}>
       <h1 className="text-xl font-semibold">A few last questions</h1>
-      {props.ask.ageBand && select("Age", age, setAge, AGE_BANDS)}
-      {props.ask.handedness && select("Which hand do you write with?", hand, setHand, ["left", "right", "both", "prefer not to say"])}
-      {props.ask.experience && select("How often do you aim by moving a device (games, apps)?", exp, setExp, ["never", "sometimes", "often"])}
+      {props.ask.ageBand && select("Age", age, setAge, [...FINAL_CHOICES.age_band])}
+      {props.ask.handedness && select("Which hand do you write with?", hand, setHand, [...FINAL_CHOICES.handedness])}
+      {props.ask.experience && select("How often do you aim by moving a device (games, apps)?", exp, setExp, [...FINAL_CHOICES.experience])}
       {props.ask.comments && (
         <label className="block">Comments (optional)
-          <textarea className="input w-full" rows={3} value={comments} onChange={(e) => setComments(e.target.value)} maxLength={2000} />
+          <textarea className="input w-full" rows={3} value={comments} onChange={(e) => setComments(e.target.value)} maxLength={MAX_COMMENT_CHARS} />
         </label>
       )}
       <button type="submit" className="btn w-full sm:w-auto" disabled={!ready || props.busy}>Finish</button>

@@ -16,6 +16,7 @@ import {
   type CalibrationRequest, type ConsentRequest, type DeviceRequest, type PlannedSequence, type Progress,
   type QuestionnaireRequest, type SessionState,
 } from "@/lib/runner";
+import { answerProblems } from "@/lib/runner/questionnaire";
 
 /** A participants row as MariaDB returns it (JSON columns arrive as text). */
 export type ParticipantRow = {
@@ -355,11 +356,11 @@ export async function saveProgress(db: Knex, ctx: SessionContext, progress: Prog
   });
 }
 
-/** Stores questionnaire answers (a repeat overwrites: the last answer counts). */
+/** Stores questionnaire answers to the design's own questions (answerProblems; a repeat overwrites: the last answer counts). */
 export async function saveAnswers(db: Knex, ctx: SessionContext, input: QuestionnaireRequest): Promise<void> {
   assertConsented(ctx);
-  const known = input.condition === "" || conditionsOf(ctx.design).some((c) => c.label === input.condition);
-  if (!known) throw unprocessable(`Unknown condition "${input.condition}".`);
+  const problems = answerProblems(ctx.design, input);
+  if (problems.length > 0) throw unprocessable(`questionnaire: ${problems[0]!.message}`, problems.map((p) => ({ path: "answers", message: p.message })));
   const rows = input.answers.map((a) => ({ participant_id: ctx.participant.id, condition: input.condition, item_id: a.itemId, value_int: a.valueInt, value_text: a.valueText }));
   await db.transaction(async (trx) => {
     await lockActiveParticipant(trx, ctx.participant.id);

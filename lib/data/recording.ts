@@ -1,34 +1,41 @@
-import { gunzipSync } from "node:zlib";
 import type { Knex } from "knex";
 import { conflict, unprocessable } from "@/lib/errors";
+import { inspectGzipStream, StreamRefusal } from "@/lib/ingest/inspectStream";
 import { batchProblems, type SequenceBatch } from "@/lib/runner";
+import type { Problem } from "@/lib/runner/plausibility";
+import { streamProblems } from "@/lib/runner/streamPlausibility";
 import { refusalFor } from "./participantLock";
 import { assertConsented, planOf, type SessionContext } from "./participants";
 
-/** The largest decompressed stream accepted (bytes): ~10 minutes at 250 Hz. */
-export const MAX_STREAM_BYTES = 16 * 1024 * 1024;
-
 export type IngestResult = { duplicate: boolean; movements: number };
 
+/** A 422 naming the first failed rule, with every problem as an issue. */
+function implausible(problems: readonly Problem[]): Error {
+  const first = problems[0]!;
+  return unprocessable(`implausible sequence (${first.rule}): ${first.message}`, problems.map((p) => ({ path: `batch.${p.rule}`, message: p.message })));
+}
+
 /**
- * Decodes and checks an upload's stream: base64 → gzip (magic 1f 8b) → CSV whose data lines
- * number `sampleCount`. Returns the gzip bytes to store as they came.
+ * Decodes and checks an upload's stream (decodeStream): base64 → gzip, decompressed as a stream
+ * under a cap from the declared sample count (inspectGzipStream), then checked against the
+ * movements (streamProblems). Returns the gzip bytes to store as they came (the export
+ * re-encodes them).
  * @throws AppError 422 naming what is wrong.
  */
-export function decodeStream(batch: SequenceBatch): Buffer {
+export async function decodeStream(batch: SequenceBatch): Promise<Buffer> {
   const gz = Buffer.from(batch.stream.gzipBase64, "base64");
-  if (gz.length < 18 || gz[0] !== 0x1f || gz[1] !== 0x8b) throw unprocessable("stream: not gzip data");
-  let csv: Buffer;
+  let facts;
   try {
-    csv = gunzipSync(gz, { maxOutputLength: MAX_STREAM_BYTES, chunkSize: 64 * 1024 });
+    facts = await inspectGzipStream(gz, batch.stream.sampleCount);
   } catch (e) {
-    throw unprocessable(`stream: cannot be decompressed (${e instanceof Error ? e.message : String(e)})`);
+    if (e instanceof StreamRefusal) {
+      const message = `stream: ${e.message} (stopped after ${e.inflatedBytes} decompressed bytes)`;
+      throw unprocessable(message, [{ path: "batch.stream", message }]);
+    }
+    throw e;
   }
-  let lines = 0;
-  for (let i = csv.indexOf(0x0a); i !== -1; i = csv.indexOf(0x0a, i + 1)) lines++;
-  if (csv.length > 0 && csv[csv.length - 1] !== 0x0a) lines++;
-  if (!csv.subarray(0, 64).toString("utf8").startsWith("t_ms,gyro_x,gyro_y,gyro_z")) throw unprocessable("stream: the header must start with t_ms,gyro_x,gyro_y,gyro_z");
-  if (lines - 1 !== batch.stream.sampleCount) throw unprocessable(`stream: ${lines - 1} samples, but sampleCount says ${batch.stream.sampleCount}`);
+  const problems = streamProblems(batch, facts);
+  if (problems.length > 0) throw implausible(problems);
   return gz;
 }
 
@@ -48,8 +55,8 @@ export async function ingestSequenceBatch(db: Knex, ctx: SessionContext, batch: 
   const plan = planOf(ctx);
   if (!plan) throw conflict("Consent comes first.");
   const problems = batchProblems(batch, p.id, plan, ctx.design);
-  if (problems.length > 0) throw unprocessable(`implausible sequence: ${problems[0]}`, problems.map((message) => ({ path: "batch", message })));
-  const gz = decodeStream(batch);
+  if (problems.length > 0) throw implausible(problems);
+  const gz = await decodeStream(batch);
   const [sets] = (await db.raw("CALL record_sequence(?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)", [
     p.id, new Date(), batch.key, batch.condition, batch.conditionIndex, batch.block, batch.sequence, batch.practice ? 1 : 0,
     batch.unit, batch.amplitude, batch.width, batch.stream.sampleCount, gz, JSON.stringify(batch.quality),

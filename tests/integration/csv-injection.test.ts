@@ -22,7 +22,7 @@ let fx: SessionFixture;
 
 beforeAll(async () => {
   await seedDemo(db);
-  fx = await createSessionStudy(db, "CSV injection test", motionDesign, 1);
+  fx = await createSessionStudy(db, "CSV injection test", { ...motionDesign, finalQuestionnaire: { ageBand: true, handedness: true, experience: true, comments: true } }, 1);
   const ctx = (await fetchSessionByToken(db, fx.participants[0]!.token))!;
   await recordConsent(db, ctx, { consentVersionId: fx.consentVersionId, versionHash: fx.consentHash, agreed: ["s1", "s2", "s3"], typedName: FORMULA, screenShortSidePx: 700 }, null);
   const live = (await fetchSessionByToken(db, fx.participants[0]!.token))!;

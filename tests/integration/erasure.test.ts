@@ -19,8 +19,10 @@ import { genuineBatch, wire } from "../fixtures/genuineBatch";
 // Erasure of a participant (lib/data/erasure.ts) and the guards of every participant write
 // (lib/data/participantLock.ts), against MariaDB.
 
-const design = studyDesignSchema.parse(motionDesign);
-const keepDesign: StudyDesignInput = { ...motionDesign, eraseOnWithdrawal: false };
+// the final questionnaire asks for comments, so a participant can write their name into one
+const withComments: StudyDesignInput = { ...motionDesign, finalQuestionnaire: { ageBand: true, handedness: true, experience: true, comments: true } };
+const design = studyDesignSchema.parse(withComments);
+const keepDesign: StudyDesignInput = { ...withComments, eraseOnWithdrawal: false };
 const NAME = "Aino Kaarina Lehtonen";
 const EMAIL = "aino.lehtonen.participant@mailbox.example";
 const REASON = "My neighbour Pekka Salo told me the study is run by his sister";
@@ -63,7 +65,7 @@ let keep: SessionFixture;
 
 beforeAll(async () => {
   await seedDemo(db);
-  fx = await createSessionStudy(db, "Erasure test", motionDesign, 4);
+  fx = await createSessionStudy(db, "Erasure test", withComments, 4);
   keep = await createSessionStudy(db, "Erasure keep-data test", keepDesign, 2);
 });
 afterAll(() => db.destroy());
@@ -144,7 +146,7 @@ describe("eraseParticipant", () => {
 
 describe("participant writes racing a withdrawal with erasure (100 sessions at once)", () => {
   it("never revive a withdrawn session and never leave a row behind the erasure", async () => {
-    const race = await createSessionStudy(db, "Erasure race", motionDesign, 100);
+    const race = await createSessionStudy(db, "Erasure race", withComments, 100);
     const contexts = await Promise.all(race.participants.map((_, i) => consented(race, i)));
     // every measured sequence stored, so completion can succeed when it comes first
     await Promise.all(contexts.map(async (ctx) => {

@@ -1,4 +1,6 @@
+import { gzipSync } from "node:zlib";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { INFLATE_CHUNK_BYTES, streamByteCap } from "@/lib/ingest/inspectStream";
 import { seedDemo } from "@/db/seeds/demo";
 import { db } from "@/lib/db";
 import { AppError } from "@/lib/errors";
@@ -61,7 +63,9 @@ describe("ingestSequenceBatch", () => {
     const base = batchFor(design, ctx.participant.id, plan[1]!);
     // Awkward IEEE 754 doubles (0.1 + 0.2, 1/3, a subnormal-adjacent value): each must come back bit for bit.
     const odd = [0.1 + 0.2, 1 / 3, -1.23456789e-5, 2.2250738585072014e-308, 12345.678901234567];
-    const movements = base.movements.map((m, i) => ({ ...m, end_x: m.end_x + odd[i % odd.length]!, end_y: m.end_y - odd[(i + 2) % odd.length]!, time_ms: 700 + odd[(i + 1) % odd.length]! / 8, hit: (i % 4 === 3 ? 0 : 1) as 0 | 1, timed_out: (i === 5 ? 1 : 0) as 0 | 1, recentered: (i % 3 === 1 ? 1 : 0) as 0 | 1, clutched: (i % 5 === 2 ? 1 : 0) as 0 | 1 }));
+    // (every fourth a miss, a width beside the target; each movement starts where the last ended, as the runner records them)
+    const ends = base.movements.map((m, i) => ({ x: m.end_x + odd[i % 4]! + (i % 4 === 3 ? base.width : 0), y: m.end_y - odd[(i + 2) % 4]! }));
+    const movements = base.movements.map((m, i) => ({ ...m, start_x: i === 0 ? m.start_x : ends[i - 1]!.x, start_y: i === 0 ? m.start_y : ends[i - 1]!.y, end_x: ends[i]!.x, end_y: ends[i]!.y, time_ms: 700 + odd[(i + 1) % odd.length]! / 100, hit: (i % 4 === 3 ? 0 : 1) as 0 | 1, timed_out: (i === 5 ? 1 : 0) as 0 | 1, recentered: (i % 3 === 1 ? 1 : 0) as 0 | 1, clutched: (i % 5 === 2 ? 1 : 0) as 0 | 1 }));
     expect(await ingestSequenceBatch(db, ctx, { ...base, movements })).toEqual({ duplicate: false, movements: movements.length });
     const rows = await db("trials").where({ upload_key: base.key }).orderBy("trial");
     expect(rows.map((r) => ({ trial: r.trial, from_x: r.from_x, from_y: r.from_y, to_x: r.to_x, to_y: r.to_y, start_x: r.start_x, start_y: r.start_y, end_x: r.end_x, end_y: r.end_y, time_ms: r.time_ms, hit: r.hit ? 1 : 0, timed_out: r.timed_out ? 1 : 0, recentered: r.recentered ? 1 : 0, clutched: r.clutched ? 1 : 0 }))).toEqual(movements);
@@ -79,6 +83,37 @@ describe("ingestSequenceBatch", () => {
     expect(await status(ingestSequenceBatch(db, ctx, { ...batch, stream: { ...batch.stream, sampleCount: 5 } }))).toBe(422);
     const fresh = (await fetchSessionByToken(db, fx.participants[2]!.token))!;
     expect(await status(ingestSequenceBatch(db, fresh, batch))).toBe(409);
+  });
+
+  it("attack: a made-up sequence (centres hit 1 ms apart, a stub stream) is refused naming the rule, and nothing is written", async () => {
+    const ctx = (await fetchSessionByToken(db, fx.participants[1]!.token))!;
+    const plan = planOf(ctx)!;
+    const real = batchFor(design, ctx.participant.id, plan[2]!);
+    const made = {
+      ...real,
+      movements: real.movements.map((m) => ({ ...m, start_x: m.from_x, start_y: m.from_y, end_x: m.to_x, end_y: m.to_y, time_ms: 1, hit: 1 as const })),
+      stream: { gzipBase64: gzipSync("t_ms,gyro_x,gyro_y,gyro_z\n0,0,0,0\n").toString("base64"), sampleCount: 1 },
+    };
+    const refusal = await ingestSequenceBatch(db, ctx, made).catch((e: unknown) => e as AppError);
+    expect(refusal).toBeInstanceOf(AppError);
+    expect((refusal as AppError).status).toBe(422);
+    expect((refusal as AppError).message).toMatch(/implausible sequence \((time|start)\)/);
+    // movements right, stream made up: the stream's rules name it
+    const stub = { ...real, stream: made.stream };
+    expect(((await ingestSequenceBatch(db, ctx, stub).catch((e: unknown) => e)) as AppError).message).toMatch(/\((stream-span|sample-rate)\)/);
+    expect(await db("sequence_streams").where({ upload_key: real.key }).count({ n: "*" })).toEqual([{ n: 0 }]);
+  });
+
+  it("attack: a gzip bomb (tens of KB inflating to 16 MB) is refused after at most the cap its sample count allows", async () => {
+    const ctx = (await fetchSessionByToken(db, fx.participants[1]!.token))!;
+    const real = batchFor(design, ctx.participant.id, planOf(ctx)![2]!);
+    const line = "0,0,0,0,,,,,,,0\n";
+    const bomb = gzipSync("t_ms,gyro_x,gyro_y,gyro_z,accel_x,accel_y,accel_z,stick_x,stick_y,buttons,screen_angle\n" + line.repeat(Math.ceil((16 << 20) / line.length)), { level: 9 });
+    expect(bomb.length).toBeLessThan(64 << 10);
+    const refusal = (await ingestSequenceBatch(db, ctx, { ...real, stream: { gzipBase64: bomb.toString("base64"), sampleCount: real.stream.sampleCount } }).catch((e: unknown) => e)) as AppError;
+    expect(refusal.status).toBe(422);
+    const stopped = Number(/stopped after (\d+) decompressed bytes/.exec(refusal.message)?.[1]);
+    expect(stopped).toBeLessThanOrEqual(streamByteCap(real.stream.sampleCount) + INFLATE_CHUNK_BYTES);
   });
 
   it("after withdrawal refuses further uploads with 410 and erases earlier data when the study says so", async () => {
