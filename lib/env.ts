@@ -26,6 +26,8 @@ const schemaFor = (isDev: boolean) => z.object({
   DB_POOL_MAX: z.coerce.number().int().min(1).max(200).default(10),
   /** How many reverse proxies in front of the server append to X-Forwarded-For; 0 (the default): the header is ignored. */
   TRUSTED_PROXY_HOPS: z.coerce.number().int().min(0).max(10).default(0),
+  /** Sequence uploads one session link may send per minute (lib/auth/rate-limit.ts); more are answered 429 and retried by the runner. */
+  UPLOAD_LIMIT_PER_MINUTE: z.coerce.number().int().min(1).max(100_000).default(120),
   SMTP_HOST: z.string().default("127.0.0.1"),
   SMTP_PORT: z.coerce.number().int().positive().default(2525),
   SMTP_USER: z.string().optional(),

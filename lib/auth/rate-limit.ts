@@ -1,5 +1,4 @@
 import { createHmac } from "node:crypto";
-import type { Knex } from "knex";
 import type { Queryable } from "@/lib/db";
 import { env } from "@/lib/env";
 
@@ -13,6 +12,20 @@ export const SIGN_IN_ADDRESS_LIMIT: Limit = { name: "sign-in address", max: 100,
 /** Password-reset requests per account, and per address, in an hour. */
 export const RESET_ACCOUNT_LIMIT: Limit = { name: "reset account", max: 3, windowMs: 60 * 60_000 };
 export const RESET_ADDRESS_LIMIT: Limit = { name: "reset address", max: 10, windowMs: 60 * 60_000 };
+/**
+ * Sequence uploads per session link in a minute (UPLOAD_LIMIT_PER_MINUTE, default 120). A person
+ * finishes a sequence every several seconds; a runner catching up after a network outage sends
+ * its queue one batch at a time and retries a 429 with backoff, so it loses nothing.
+ */
+export const uploadLinkLimit = (): Limit => ({ name: "upload link", max: env.UPLOAD_LIMIT_PER_MINUTE, windowMs: 60_000 });
+/**
+ * Counts a sequence upload against its session link's limit (admitUpload), before the body is
+ * read or anything decompressed. @returns null when it may go on, else the seconds to wait.
+ */
+export async function admitUpload(q: Queryable, participantId: number, now = Date.now()): Promise<number | null> {
+  const limit = uploadLinkLimit();
+  return (await hitLimit(q, limit, `participant:${participantId}`, now)).within ? null : secondsToNextWindow(limit, now);
+}
 /** For the messages that quote it. */
 export const SIGN_IN_LIMIT = { failures: SIGN_IN_ACCOUNT_LIMIT.max, windowMinutes: SIGN_IN_ACCOUNT_LIMIT.windowMs / 60_000 };
 
@@ -27,20 +40,24 @@ export function limitBucket(limit: Limit, key: string): string {
 const windowOf = (limit: Limit, now: number): Date => new Date(Math.floor(now / limit.windowMs) * limit.windowMs);
 
 /**
- * Counts one hit against a limit and says whether it is within (hitLimit): one atomic increment
- * (INSERT … ON DUPLICATE KEY UPDATE) and a read of the count under the row lock it took, in one
- * transaction, so of any number of parallel hits exactly `max` are within. Fixed windows.
+ * Counts one hit against a limit and says whether it is within (hitLimit): one atomic statement,
+ * INSERT … ON DUPLICATE KEY UPDATE hits = LAST_INSERT_ID(hits + 1), whose answer carries the
+ * count it wrote (MariaDB: LAST_INSERT_ID(expr) sets the value the statement reports), so of any
+ * number of parallel hits exactly `max` are within, in one round trip. Fixed windows.
  * @returns the count including this hit, and whether it is within the limit.
  */
-export async function hitLimit(db: Knex, limit: Limit, key: string, now = Date.now()): Promise<{ count: number; within: boolean }> {
-  const bucket = limitBucket(limit, key);
-  const start = windowOf(limit, now);
-  const count = await db.transaction(async (trx) => {
-    await trx.raw("INSERT INTO rate_limits (bucket, window_start, hits) VALUES (?, ?, 1) ON DUPLICATE KEY UPDATE hits = hits + 1", [bucket, start]);
-    const row = await trx("rate_limits").where({ bucket, window_start: start }).first<{ hits: number }>("hits");
-    return Number(row?.hits ?? 1);
-  });
+export async function hitLimit(q: Queryable, limit: Limit, key: string, now = Date.now()): Promise<{ count: number; within: boolean }> {
+  const [result] = (await q.raw(
+    "INSERT INTO rate_limits (bucket, window_start, hits) VALUES (?, ?, LAST_INSERT_ID(1)) ON DUPLICATE KEY UPDATE hits = LAST_INSERT_ID(hits + 1)",
+    [limitBucket(limit, key), windowOf(limit, now)],
+  )) as [{ insertId: number }];
+  const count = Math.max(1, Number(result.insertId));
   return { count, within: count <= limit.max };
+}
+
+/** Seconds until the window of a limit that holds `now` ends (for Retry-After). */
+export function secondsToNextWindow(limit: Limit, now = Date.now()): number {
+  return Math.max(1, Math.ceil((windowOf(limit, now).getTime() + limit.windowMs - now) / 1000));
 }
 
 /** Gives one hit back (a sign-in that succeeded was no failure). */

@@ -1,5 +1,6 @@
 import { gzipSync } from "node:zlib";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { admitUpload, uploadLinkLimit } from "@/lib/auth/rate-limit";
 import { INFLATE_CHUNK_BYTES, streamByteCap } from "@/lib/ingest/inspectStream";
 import { seedDemo } from "@/db/seeds/demo";
 import { db } from "@/lib/db";
@@ -114,6 +115,16 @@ describe("ingestSequenceBatch", () => {
     expect(refusal.status).toBe(422);
     const stopped = Number(/stopped after (\d+) decompressed bytes/.exec(refusal.message)?.[1]);
     expect(stopped).toBeLessThanOrEqual(streamByteCap(real.stream.sampleCount) + INFLATE_CHUNK_BYTES);
+  });
+
+  it("attack: a flood of uploads on one link is counted atomically; past the limit each waits for the next minute", async () => {
+    const ctx = (await fetchSessionByToken(db, fx.participants[1]!.token))!;
+    const now = Date.now();
+    const waits = await Promise.all(Array.from({ length: 200 }, () => admitUpload(db, ctx.participant.id, now)));
+    expect(waits.filter((w) => w === null)).toHaveLength(uploadLinkLimit().max);
+    expect(waits.filter((w) => w !== null).every((w) => w! >= 1 && w! <= 60)).toBe(true);
+    // another link is not held up by this one
+    expect(await admitUpload(db, ctx.participant.id + 100_000, now)).toBeNull();
   });
 
   it("after withdrawal refuses further uploads with 410 and erases earlier data when the study says so", async () => {
