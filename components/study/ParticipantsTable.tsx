@@ -10,7 +10,7 @@ import { ActionMessageView, useAction } from "./useAction";
 /** A participant as the table shows them (dates as ISO text: the rows cross from the server). */
 export type ParticipantTableRow = {
   id: number; code: string; kind: "real" | "pilot" | "simulated"; included: boolean; source: string; status: string; stage: string;
-  deviceVerdict: string | null; device: string; sensor: string; completionCode: string | null; protocolVersion: number | null;
+  deviceVerdict: string | null; device: string; sensor: string; completionCode: string | null; revoked: boolean; protocolVersion: number | null;
   row: number | null; place: string | null; exclusion: string | null; exclusionId: number | null; excludedSequences: number; flags: string[];
   lastActivity: string; panelId: string | null;
 };
@@ -28,17 +28,17 @@ export function ParticipantsTable({ studyId, rows, canEdit, pilots, showPanel }:
   const [sorting, setSorting] = useState<SortingState>([]);
   const [text, setText] = useState("");
   const [status, setStatus] = useState("");
-  const [excluding, setExcluding] = useState<{ id: number; reason: string } | null>(null);
+  const [excluding, setExcluding] = useState<{ id: number; code: string; reason: string } | null>(null);
   const columns = useMemo(
     () => [
-      col.accessor("code", { header: "Code", cell: (c) => <Link href={`/studies/${studyId}/participants/${c.row.original.id}`} className="font-mono">{c.getValue()}</Link> }),
+      col.accessor("code", { header: "Code", cell: (c) => <Link href={`/studies/${studyId}/participants/${c.row.original.id}`} className="whitespace-nowrap font-mono">{c.getValue()}</Link> }),
       ...(pilots ? [col.accessor("kind", { header: "Kind" })] : [col.accessor("source", { header: "Source" })]),
-      col.accessor((r) => STATUS[r.status] ?? r.status, { id: "status", header: "Status", filterFn: (row, _id, value: string) => !value || row.original.status === value }),
+      col.accessor((r) => (r.revoked ? "revoked" : STATUS[r.status] ?? r.status), { id: "status", header: "Status", filterFn: (row, _id, value: string) => !value || row.original.status === value }),
       col.accessor("stage", { header: "Stage" }),
       col.accessor((r) => r.deviceVerdict ?? "—", { id: "verdict", header: "Device check" }),
       col.accessor("device", { header: "Device · browser · OS" }),
       col.accessor("sensor", { header: "Sensor" }),
-      ...(pilots ? [] : [col.accessor((r) => r.completionCode ?? "—", { id: "completion", header: "Completion code", cell: (c) => <span className="font-mono">{c.getValue()}</span> })]),
+      ...(pilots ? [] : [col.accessor((r) => r.completionCode ?? "—", { id: "completion", header: "Completion code", cell: (c) => <span className="whitespace-nowrap font-mono">{c.getValue()}</span> })]),
       col.accessor((r) => r.protocolVersion ?? "—", { id: "version", header: "Version" }),
       ...(pilots ? [] : [col.accessor((r) => (r.row === null ? "—" : `${r.row}${r.place && r.place !== "holds" ? ` (${r.place})` : ""}`), { id: "row", header: "Row" })]),
       col.accessor((r) => (r.exclusion ? `excluded: ${r.exclusion}` : r.excludedSequences > 0 ? `${r.excludedSequences} sequence(s) excluded` : pilots ? (r.included ? "included" : "left out") : "—"), { id: "exclusion", header: pilots ? "In results" : "Exclusion" }),
@@ -60,7 +60,7 @@ export function ParticipantsTable({ studyId, rows, canEdit, pilots, showPanel }:
               }
               if (r.exclusionId !== null) return <button type="button" className="btn-secondary" onClick={() => void act(() => apiSend("DELETE", `/api/studies/${studyId}/exclusions/${r.exclusionId}`), `${r.code} is back in the results.`)}>Take back exclusion</button>;
               if (r.status === "invited") return null;
-              return <button type="button" className="btn-secondary" onClick={() => setExcluding({ id: r.id, reason: r.flags[0] ?? "" })}>Exclude…</button>;
+              return <button type="button" className="btn-secondary" onClick={() => setExcluding({ id: r.id, code: r.code, reason: r.flags[0] ?? "" })}>Exclude…</button>;
             },
           })]
         : []),
@@ -91,11 +91,12 @@ export function ParticipantsTable({ studyId, rows, canEdit, pilots, showPanel }:
       {excluding && (
         <form className="card flex flex-wrap items-end gap-2" onSubmit={(e) => {
           e.preventDefault();
-          void act(() => apiSend("POST", `/api/studies/${studyId}/exclusions`, { scope: "participant", participantId: excluding.id, reason: excluding.reason }), "Excluded: the results and archives leave this participant out and report the reason.").then(() => setExcluding(null));
+          void act(() => apiSend("POST", `/api/studies/${studyId}/exclusions`, { scope: "participant", participantId: excluding.id, reason: excluding.reason }), `${excluding.code} is excluded: the results and archives leave them out and report the reason.`).then((done) => done && setExcluding(null));
         }}>
-          <div className="min-w-[20rem] flex-1"><label htmlFor="exclusion-reason">Reason (reported in the results, the archive and its methods text)</label>
-            <input id="exclusion-reason" className="input" value={excluding.reason} onChange={(e) => setExcluding({ ...excluding, reason: e.target.value })} /></div>
-          <button className="btn">Exclude</button>
+          <div className="min-w-[20rem] flex-1"><label htmlFor="exclusion-reason">Exclude {excluding.code}: reason (reported in the results, the archive and its methods text)</label>
+            {/* focused: the form opens on the person's own click, possibly far above the row they clicked */}
+            <input id="exclusion-reason" className="input" autoFocus value={excluding.reason} onChange={(e) => setExcluding({ ...excluding, reason: e.target.value })} /></div>
+          <button className="btn">Exclude {excluding.code}</button>
           <button type="button" className="btn-secondary" onClick={() => setExcluding(null)}>Cancel</button>
         </form>
       )}
@@ -105,7 +106,7 @@ export function ParticipantsTable({ studyId, rows, canEdit, pilots, showPanel }:
           <SortableHead table={table} />
           <tbody>
             {table.getRowModel().rows.map((r) => (
-              <tr key={r.id} data-code={r.original.code}>{r.getVisibleCells().map((c) => <td key={c.id}>{flexRender(c.column.columnDef.cell, c.getContext())}</td>)}</tr>
+              <tr key={r.id} data-code={r.original.code}>{r.getVisibleCells().map((c) => <td key={c.id} data-col={c.column.id}>{flexRender(c.column.columnDef.cell, c.getContext())}</td>)}</tr>
             ))}
             {table.getRowModel().rows.length === 0 && <tr><td colSpan={columns.length}>{rows.length === 0 ? `No ${label.toLowerCase()} yet.` : "None matches."}</td></tr>}
           </tbody>

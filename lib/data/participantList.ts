@@ -24,7 +24,10 @@ export interface ParticipantListEntry {
   os: string | null;
   sensorSource: string | null;
   sampleRateHz: number | null;
+  /** The completion code of a real participant who completed (null before: nobody has earned it yet). */
   completionCode: string | null;
+  /** The team revoked the invitation before it was used. */
+  revoked: boolean;
   protocolVersion: number | null;
   /** Counterbalancing row (1-based as shown) and what became of the place. */
   row: number | null;
@@ -84,7 +87,8 @@ export async function fetchParticipantList(q: Queryable, studyId: number, option
       stage: stageOf(r, design, Number(streams.find((s) => s.participant_id === r.id)?.n ?? 0)),
       deviceVerdict: device?.verdict ?? null, deviceClass: summary?.deviceClass ?? null, browser: summary?.browserFamily ?? null, os: summary?.osFamily ?? null,
       sensorSource: device?.sourceKind ?? null, sampleRateHz,
-      completionCode: r.kind === "real" ? r.completion_code : null,
+      completionCode: r.kind === "real" && r.status === "completed" ? r.completion_code : null,
+      revoked: r.revoked_at !== null,
       protocolVersion: r.version,
       row: r.cb_row === null ? null : r.cb_row + 1,
       place: placeOf(r, now.getTime(), limit),

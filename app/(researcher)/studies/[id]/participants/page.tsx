@@ -10,9 +10,9 @@ export const dynamic = "force-dynamic";
 
 const toRow = (p: ParticipantListEntry): ParticipantTableRow => ({
   id: p.id, code: p.code, kind: p.kind, included: p.included, source: p.source, status: p.status, stage: p.stage, deviceVerdict: p.deviceVerdict,
-  device: [p.deviceClass, p.browser, p.os].map((x) => x ?? "—").join(" · "),
+  device: p.deviceClass || p.browser || p.os ? [p.deviceClass, p.browser, p.os].map((x) => x ?? "—").join(" · ") : "—",
   sensor: p.sensorSource ? `${p.sensorSource}${p.sampleRateHz !== null ? `, ${Math.round(p.sampleRateHz)} Hz` : ""}` : "—",
-  completionCode: p.completionCode, protocolVersion: p.protocolVersion, row: p.row, place: p.place, exclusion: p.exclusion, exclusionId: p.exclusionId,
+  completionCode: p.completionCode, revoked: p.revoked, protocolVersion: p.protocolVersion, row: p.row, place: p.place, exclusion: p.exclusion, exclusionId: p.exclusionId,
   excludedSequences: p.excludedSequences, flags: p.flags, lastActivity: p.lastActivityAt ? p.lastActivityAt.toISOString().slice(0, 16).replace("T", " ") : "—", panelId: p.panelId,
 });
 
