@@ -5,7 +5,7 @@ import { useState } from "react";
 import { apiSend } from "./api";
 
 /** Opens and closes recruitment, sets the cap and public link, makes links (CSV) and sends e-mail invitations. */
-export function RecruitmentPanel({ studyId, status, isOwner, canEdit, cap, publicLink, blocker }: { studyId: number; status: string; isOwner: boolean; canEdit: boolean; cap: number | null; publicLink: string | null; blocker: string | null }) {
+export function RecruitmentPanel({ studyId, status, isOwner, canEdit, cap, publicLink, publicQr = null, blocker }: { studyId: number; status: string; isOwner: boolean; canEdit: boolean; cap: number | null; publicLink: string | null; publicQr?: string | null; blocker: string | null }) {
   const router = useRouter();
   const [msg, setMsg] = useState<{ ok: boolean; text: string } | null>(null);
   const [capText, setCapText] = useState(cap === null ? "" : String(cap));
@@ -51,7 +51,14 @@ export function RecruitmentPanel({ studyId, status, isOwner, canEdit, cap, publi
             {status === "approved" && <button type="button" className="btn" onClick={() => run(async () => { await recruitment("open"); return "Recruitment is open."; })}>Open recruitment</button>}
             {status === "recruiting" && <button type="button" className="btn-secondary" onClick={() => run(async () => { await recruitment("close"); return "Recruitment is closed."; })}>Close recruitment</button>}
           </div>
-          {publicLink && <p className="text-sm">Public link (each visitor gets a code of their own): <code className="break-all">{publicLink}</code></p>}
+          {publicLink && <p className="text-sm">Public link (each visitor gets a code of their own): <code className="break-all" data-testid="public-link">{publicLink}</code></p>}
+          {publicLink && publicQr && (
+            <details className="text-sm">
+              <summary>QR code of the public link (for a poster or a slide)</summary>
+              {/* eslint-disable-next-line @next/next/no-img-element -- a data: URL made on the server */}
+              <img src={publicQr} alt={`QR code for ${publicLink}`} width={200} height={200} className="mt-2 rounded border border-slate-300" />
+            </details>
+          )}
         </div>
       )}
       {canEdit && status === "recruiting" && (

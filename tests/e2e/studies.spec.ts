@@ -99,7 +99,8 @@ test("a 2 × 2 study from design to invitations, with review and a verified audi
   await researcher.getByLabel("Addresses (one per line)").fill(addresses.join("\n"));
   await researcher.getByRole("button", { name: "Send invitations" }).click();
   await expect(researcher.getByRole("status")).toContainText("Sent 3 invitation(s)");
-  await expect(researcher.getByRole("table", { name: "Participants" }).locator("tbody tr")).toHaveCount(3);
+  await expect(researcher.getByRole("table", { name: "Invitations" }).locator("tbody tr")).toHaveCount(3);
+  await expect(researcher.getByTestId("participant-counts")).toContainText("3 participant(s): 3 not started.");
   for (const a of addresses) {
     const [m] = await mailTo(a);
     expect(m?.subject).toBe(`Invitation to take part: ${title}`);
