@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { db } from "@/lib/db";
-import { fetchSessionByToken, fetchSessionState } from "@/lib/data/participants";
+import { fetchSessionByToken, fetchSessionState, revokedError } from "@/lib/data/participants";
 import { SessionApp } from "@/components/participant/SessionApp";
 
 export const dynamic = "force-dynamic";
@@ -12,6 +12,15 @@ export default async function SessionPage({ params }: { params: Promise<{ token:
   const { token } = await params;
   const ctx = await fetchSessionByToken(db, token);
   if (!ctx) notFound();
+  if (ctx.participant.revoked_at) {
+    // an invitation the team revoked before it was used: say so at once, not after the first click
+    return (
+      <main className="mx-auto max-w-xl space-y-3 p-4">
+        <h1 className="text-xl font-semibold">This link no longer opens a session</h1>
+        <p data-testid="invitation-revoked">{revokedError().message} If you think this is a mistake, please write to the researcher who invited you.</p>
+      </main>
+    );
+  }
   const state = await fetchSessionState(db, ctx);
   return <SessionApp token={token} initial={state} />;
 }
