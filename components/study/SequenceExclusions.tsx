@@ -50,13 +50,14 @@ export function SequenceExclusions({ studyId, participantId, code, sequences, pa
                     e.preventDefault();
                     void act(() => apiSend("POST", `/api/studies/${studyId}/exclusions`, { scope: "sequence", participantId, conditionIndex: s.conditionIndex, block: s.block, sequence: s.sequence, reason: reasons[key(s)] ?? s.flags[0] ?? "" }), "The sequence is excluded.");
                   }}>
-                    <input className="input w-48" aria-label={`Reason to exclude ${s.condition}, block ${s.block}, sequence ${s.sequence}`} value={reasons[key(s)] ?? s.flags[0] ?? ""} onChange={(e) => setReasons({ ...reasons, [key(s)]: e.target.value })} />
+                    <input className="input w-48" placeholder="reason" aria-label={`Reason to exclude ${s.condition}, block ${s.block}, sequence ${s.sequence}`} value={reasons[key(s)] ?? s.flags[0] ?? ""} onChange={(e) => setReasons({ ...reasons, [key(s)]: e.target.value })} />
                     <button className="btn-secondary">Exclude</button>
                   </form>
                 ) : "—"}
               </td>
             </tr>
           ))}
+          {sequences.length === 0 && <tr><td colSpan={7}>No measured sequences yet.</td></tr>}
         </tbody>
       </table>
       <ActionMessageView msg={msg} />

@@ -12,7 +12,8 @@ import { apiSend, ApiError } from "./api";
 type In = z.input<typeof updateStudySchema>;
 type Out = z.output<typeof updateStudySchema>;
 
-export function StudyMetaForm({ studyId, initial }: { studyId: number; initial: { title: string; summary: string; protocolNumber: string | null } }) {
+/** Title, summary and protocol number; after approval (inForceVersion) a changed title or summary waits for the amendment's approval. */
+export function StudyMetaForm({ studyId, initial, inForceVersion = null }: { studyId: number; initial: { title: string; summary: string; protocolNumber: string | null }; inForceVersion?: number | null }) {
   const router = useRouter();
   const [ok, setOk] = useState(false);
   const { register, handleSubmit, setError, formState: { errors, isSubmitting } } = useForm<In, unknown, Out>({ resolver: zodResolver(updateStudySchema), defaultValues: { ...initial, protocolNumber: initial.protocolNumber ?? "" } });
@@ -32,7 +33,7 @@ export function StudyMetaForm({ studyId, initial }: { studyId: number; initial: 
       <p className="text-xs text-slate-600">Title and summary are what participants read on the information page, so they are part of the protocol: after approval a change is an amendment (Review tab).</p>
       <Field id="meta-protocol" label="Ethics protocol number" error={errors.protocolNumber?.message}><input id="meta-protocol" className="input" {...register("protocolNumber")} /></Field>
       {errors.root && <p className="field-error" role="alert">{errors.root.message}</p>}
-      {ok && <p className="notice" role="status">Saved.</p>}
+      {ok && <p className="notice" role="status">{inForceVersion === null ? "Saved." : `Saved. Participants keep reading the approved version ${inForceVersion} until a reviewer approves the amendment (Review tab).`}</p>}
       <button className="btn" disabled={isSubmitting}>Save details</button>
     </form>
   );

@@ -80,7 +80,9 @@ export async function startTasks(db: Knex, ctx: SessionContext, now = new Date()
     return { order: labels, row: pilot ? null : row, slot, fresh: true };
   });
   if (result.fresh) {
-    await appendAudit(db, { actorUserId: null, actorLabel: `participant ${ctx.participant.code}`, action: "participant.started", studyId: ctx.study.id, details: { participant: ctx.participant.code, ...(pilot ? { pilot: true } : { row: result.row, place: result.slot }) } });
+    // row and place counted from 1, as the design and participants pages show them
+    const placed = result.row === null || result.slot === null ? {} : { row: result.row + 1, place: result.slot + 1 };
+    await appendAudit(db, { actorUserId: null, actorLabel: `participant ${ctx.participant.code}`, action: "participant.started", studyId: ctx.study.id, details: { participant: ctx.participant.code, ...(pilot ? { pilot: true } : placed) } });
   }
   return { order: result.order, row: result.row };
 }

@@ -55,8 +55,21 @@ test("an approved study is amended and re-approved while one participant keeps t
   await expect(researcher.getByTestId("protocol-status")).toContainText("version 2 in force");
   await researcher.goto(`/studies/${studyId}/participants`);
   const table = researcher.getByRole("table", { name: "Participants" });
-  await expect(table.locator(`tr[data-code="${late!.code}"] td`).nth(8)).toHaveText("2");
-  await expect(table.locator(`tr[data-code="${early!.code}"] td`).nth(8)).toHaveText("1");
+  await expect(table.locator(`tr[data-code="${late!.code}"] td[data-col="version"]`)).toHaveText("2");
+  await expect(table.locator(`tr[data-code="${early!.code}"] td[data-col="version"]`)).toHaveText("1");
+
+  // the reviewer's list of the studies they approved, and the audit trail's details of the approval
+  await reviewer.goto("/review");
+  const mine = reviewer.getByRole("table", { name: "Studies you approved" }).getByRole("row").filter({ has: reviewer.locator(`a[href="/review/studies/${studyId}"]`) });
+  await expect(mine.getByRole("cell").nth(3)).toHaveText("recruiting");
+  await expect(mine.getByRole("cell").nth(4)).toContainText("1, 2 (last ");
+  await expect(mine.getByRole("cell").nth(5)).toHaveText("2");
+  await mine.getByRole("link", { name: "trail" }).click();
+  await expect(reviewer).toHaveURL(new RegExp(`/review/audit\\?study=${studyId}$`));
+  const approvals = reviewer.getByRole("table", { name: "Audit trail" }).getByRole("row").filter({ has: reviewer.getByRole("cell", { name: "review.approve", exact: true }) });
+  await expect(approvals).toHaveCount(2);
+  await expect(approvals.first().locator('dt:text-is("protocolVersion") + dd')).toHaveText("2"); // newest first
+  await expect(approvals.last().locator('dt:text-is("protocolVersion") + dd')).toHaveText("1");
   for (const c of [p1, p2]) await c.dispose();
   for (const c of [researcherApi, reviewerApi]) await c.dispose();
 });

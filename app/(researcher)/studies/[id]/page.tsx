@@ -26,8 +26,9 @@ export default async function StudyOverviewPage({ params }: { params: Promise<{ 
         </dd>
       </dl>
       <p className="max-w-prose whitespace-pre-line text-sm">{study.summary}</p>
-      {canEdit && <StudyMetaForm studyId={study.id} initial={{ title: study.title, summary: study.summary, protocolNumber: study.protocolNumber }} />}
+      {canEdit && <StudyMetaForm studyId={study.id} initial={{ title: study.title, summary: study.summary, protocolNumber: study.protocolNumber }} inForceVersion={pending.inForce?.version ?? null} />}
       {canEdit && stored.design && <PilotPanel studyId={study.id} />}
+      {canEdit && !stored.design && <p className="notice max-w-prose" data-testid="pilot-needs-design">Pilots (yourself, on a phone, or simulated participants) open here once a design is saved: see the <Link href={`/studies/${study.id}/design`}>Design</Link> tab.</p>}
       <section className="space-y-2">
         <h2>Team</h2>
         <table className="max-w-xl"><thead><tr><th>Name</th><th>E-mail</th><th>Role</th></tr></thead>

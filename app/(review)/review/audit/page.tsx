@@ -36,7 +36,7 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
         {studyId !== undefined && <a href="/review/audit">Show every study</a>}
       </form>
       <div className="card overflow-x-auto p-0">
-        <table>
+        <table aria-label="Audit trail">
           <thead><tr><th>#</th><th>Time (UTC)</th><th>Who</th><th>Action</th><th>Study</th><th>Details</th><th>Hash</th></tr></thead>
           <tbody>
             {entries.map((e) => (

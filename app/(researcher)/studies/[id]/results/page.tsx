@@ -6,7 +6,7 @@ import { assertStudyTeam } from "@/lib/data/results";
 import { AppError } from "@/lib/errors";
 import { getCurrentUser } from "@/lib/session";
 
-export const metadata = { title: "Results · Yawpoint" };
+export const metadata = { title: "Results" };
 
 export default async function ResultsPage({ params }: { params: Promise<{ id: string }> }) {
   const id = Number((await params).id);

@@ -8,7 +8,7 @@ import { assertStudyTeam, fetchStudyDesign, fetchStudyParticipant } from "@/lib/
 import { AppError } from "@/lib/errors";
 import { getCurrentUser } from "@/lib/session";
 
-export const metadata = { title: "Participant · Yawpoint" };
+export const metadata = { title: "Participant" };
 
 export default async function ParticipantPage({ params }: { params: Promise<{ id: string; pid: string }> }) {
   const p = await params;
