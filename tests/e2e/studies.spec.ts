@@ -6,12 +6,13 @@ const title = `Tablet view aiming ${Date.now()}`;
 
 async function signIn(page: Page, role: "researcher" | "reviewer") {
   await signInWithForm(page, demo(role).email, demo(role).password);
-  await expect(page).toHaveURL(role === "researcher" ? /\/studies/ : /\/review/);
+  await expect(page).toHaveURL(role === "researcher" ? /\/studies/ : /\/review/, { timeout: 20_000 }); // sign-in hashes a password: slow on a loaded machine
 }
 
 test.describe.configure({ mode: "serial" });
 
 test("a 2 × 2 study from design to invitations, with review and a verified audit chain", async ({ browser }) => {
+  test.setTimeout(150_000); // one long path through four pages and two people
   const researcher = await (await browser.newContext()).newPage();
   await signIn(researcher, "researcher");
 
