@@ -8,6 +8,7 @@ import { ExportPanel } from "./ExportPanel";
 import { Figure } from "./Figure";
 import { FittsChart } from "./FittsChart";
 import { LearningChart } from "./LearningChart";
+import { PathTable } from "./PathTable";
 import { ProgressTable } from "./ProgressTable";
 import { fetchJson, type ResultsResponse } from "./ResultsTypes";
 import { ExclusionControls, type ExclusionChoice } from "./ExclusionControls";
@@ -72,6 +73,10 @@ export function ResultsDashboard({ studyId }: { studyId: number }) {
             </Figure>
             <div className="card overflow-x-auto"><ConditionTable analysis={a} /></div>
             {a.conditionsByGroup && <div className="card overflow-x-auto"><GroupConditionTable analysis={a} /></div>}
+            <section className="card overflow-x-auto space-y-2" aria-labelledby="path-title">
+              <h3 id="path-title" className="text-base font-semibold">Path accuracy</h3>
+              <PathTable analysis={a} status={view.paths} unit={unit} />
+            </section>
           </section>
           <section className="card space-y-4 overflow-x-auto" aria-labelledby="stats-title">
             <h2 id="stats-title">Statistics</h2>

@@ -23,6 +23,7 @@ export const PARTICIPANT_TABLES: readonly { table: string; onErase: EraseAction;
   { table: "trials", onErase: "delete", holds: "movements" },
   { table: "sequence_streams", onErase: "delete", holds: "raw sensor streams and their quality figures" },
   { table: "calibrations", onErase: "delete", holds: "device check and calibration results" },
+  { table: "path_measures", onErase: "delete", holds: "path accuracy computed from the raw streams" },
   { table: "questionnaire_answers", onErase: "delete", holds: "answers, free text included" },
   { table: "participant_contacts", onErase: "delete", holds: "the encrypted e-mail address" },
   { table: "outgoing_mail", onErase: "delete", holds: "the log of mail sent to the participant (no addresses)" },

@@ -5,7 +5,7 @@ import type { Study, TeamRole } from "@/lib/data/studies";
 import { forbidden } from "@/lib/errors";
 import { z } from "zod";
 import { studyDesignSchema, type StudyDesign } from "@/lib/study/design";
-import type { ParticipantStatus, ResultsParticipant, TrialRecord } from "@/lib/results";
+import type { ParticipantCalibration, ParticipantStatus, ResultsParticipant, TrialRecord } from "@/lib/results";
 
 /** Columns of the trials table the analysis reads. */
 export const TRIAL_RECORD_COLUMNS = [
@@ -114,17 +114,33 @@ export async function fetchStudyParticipant(q: Queryable, studyId: number, parti
   return r ? { id: r.id, code: r.code, status: r.status, cbRow: r.cb_row, betweenLevels: betweenLevelsSchema.parse(parseJson(r.between_levels)) ?? {} } : undefined;
 }
 
-/** The latest rest-calibration bias of a participant (deg/s per axis), as the session stored it; {} when none. */
-export async function fetchCalibratedBias(q: Queryable, participantId: number): Promise<{ biasXDegPerS?: number; biasYDegPerS?: number; biasZDegPerS?: number }> {
-  const row = await q("calibrations").where({ participant_id: participantId, kind: "bias" }).orderBy("id", "desc").first<{ result: unknown } | undefined>("result");
-  const r = (row ? parseJson(row.result) : null) as Record<string, unknown> | null;
-  const out: { biasXDegPerS?: number; biasYDegPerS?: number; biasZDegPerS?: number } = {};
-  for (const k of ["biasXDegPerS", "biasYDegPerS", "biasZDegPerS"] as const) {
-    const v = r?.[k];
-    if (typeof v === "number" && Number.isFinite(v) && Math.abs(v) <= 50) out[k] = v;
+/** Each participant's latest calibration of each kind (bias, card, blind spot), for replaying their streams. */
+export async function fetchCalibrations(q: Queryable, participantIds: readonly number[]): Promise<Map<number, ParticipantCalibration>> {
+  const out = new Map<number, ParticipantCalibration>();
+  if (participantIds.length === 0) return out;
+  const rows = await q("calibrations")
+    .whereIn("participant_id", participantIds)
+    .whereIn("kind", ["bias", "card", "blind_spot"])
+    .orderBy("id", "asc")
+    .select<{ participant_id: number; kind: string; result: unknown }[]>("participant_id", "kind", "result");
+  for (const row of rows) {
+    const cal = out.get(row.participant_id) ?? { bias: {}, pixelsPerMm: null, viewingDistanceMm: null };
+    const r = (parseJson(row.result) ?? {}) as Record<string, unknown>;
+    const num = (k: string, max: number) => (typeof r[k] === "number" && Number.isFinite(r[k]) && Math.abs(r[k] as number) <= max ? (r[k] as number) : undefined);
+    if (row.kind === "bias") {
+      cal.bias = {};
+      for (const k of ["biasXDegPerS", "biasYDegPerS", "biasZDegPerS"] as const) {
+        const v = num(k, 50);
+        if (v !== undefined) cal.bias[k] = v;
+      }
+    }
+    if (row.kind === "card") cal.pixelsPerMm = num("pixelsPerMm", 100) ?? null;
+    if (row.kind === "blind_spot") cal.viewingDistanceMm = num("viewingDistanceMm", 5000) ?? null;
+    out.set(row.participant_id, cal);
   }
   return out;
 }
+
 
 /**
  * Team members only (owner, editor, viewer): the results hold trial data, which reviewers do not

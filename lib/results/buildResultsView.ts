@@ -48,6 +48,18 @@ export interface ResultsOptions {
   researcherExclusions?: readonly ResearcherExclusion[];
 }
 
+/** How the path measures of a study's sequences stand (computed from the streams, kept in the database). */
+export interface PathStatus {
+  /** Non-practice sequences with a stored stream. */
+  sequences: number;
+  /** Sequences whose path measures are known (computed now or before). */
+  computed: number;
+  /** Sequences still to compute (the time budget ran out; the next request goes on). */
+  pending: number;
+  /** Sequences whose stream could not give path measures, with the reason. */
+  notComputable: { participant: string; condition: string; block: number; sequence: number; reason: string }[];
+}
+
 /** What the results page shows (GET /api/studies/[id]/results). */
 export interface ResultsView {
   unit: "px" | "mm" | "deg";
@@ -64,6 +76,8 @@ export interface ResultsView {
   awMeans: AwMean[];
   learningCurve: LearningPoint[];
   endpoints: EndpointCloud[];
+  /** Path accuracy's progress; null when it was not asked for. */
+  paths: PathStatus | null;
   exclusions: MisfireReasons & {
     rule: string;
     withdrawn: string[];
@@ -99,8 +113,9 @@ export function buildResultsView(
   participants: readonly ResultsParticipant[],
   records: readonly TrialRecord[],
   options: ResultsOptions = { exclude: "misfire", dropFlagged: [] },
-  pathMeasures?: ReadonlyMap<string, PathAccuracy>,
+  paths?: { measures: ReadonlyMap<string, PathAccuracy>; status: PathStatus },
 ): ResultsView {
+  const pathMeasures = paths?.measures;
   const unit = analysisUnitOf(design.task.unit);
   const geometry = geometryOf(design.task.displayMode);
   const conditions = conditionsOf(design);
@@ -155,6 +170,7 @@ export function buildResultsView(
     awMeans: analysis ? awMeans(analysis.sequences) : [],
     learningCurve: analysis ? learningCurve(analysis.sequences) : [],
     endpoints: clouds,
+    paths: paths?.status ?? null,
     exclusions: {
       ...exclusions,
       rule: RULE_TEXT[options.exclude] + (options.dropFlagged.length ? `; flagged movements removed: ${options.dropFlagged.join(", ")}` : "; time-outs kept and counted as errors"),

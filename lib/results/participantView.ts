@@ -4,7 +4,8 @@ import { analysisOptionsSchema } from "../analysis/options";
 import type { SequenceSummary } from "../analysis/result";
 import type { TransferConfig } from "../motion/config";
 import { conditionConfig, conditionsOf, type StudyDesign } from "../study/design";
-import { analysisUnitOf } from "./analysisUnit";
+import { analysisUnitOf, geometryOf } from "./analysisUnit";
+import { replaySetupFor, type ParticipantCalibration } from "./participantCalibration";
 import { qualityFlags, type QualityFlag } from "./qualityFlags";
 import { replayTrajectory, type Trajectory } from "./replayTrajectory";
 import { trialRowFromRecord, type TrialRecord } from "./trialRecord";
@@ -54,13 +55,13 @@ export function participantView(
   code: string,
   records: readonly TrialRecord[],
   streams: readonly (ParticipantStream & { gz: Buffer | null })[],
-  bias: Partial<Pick<TransferConfig, "biasXDegPerS" | "biasYDegPerS" | "biasZDegPerS">>,
+  calibration: ParticipantCalibration,
   chosenStreamId: number | null,
 ): ParticipantView {
   const unit = analysisUnitOf(design.task.unit);
   const conditions = conditionsOf(design);
   const byLabel = new Map(conditions.map((c) => [c.label, c]));
-  const opts = analysisOptionsSchema.parse({ unit, start: "actual", exclude: "misfire" });
+  const opts = analysisOptionsSchema.parse({ unit, geometry: geometryOf(design.task.displayMode), start: "actual", exclude: "misfire", file: "trials" });
   const acc = new TrialAccumulator(opts);
   const bySequence = new Map<string, TrialRecord[]>();
   for (const r of records) {
@@ -75,7 +76,7 @@ export function participantView(
   const limits = { minSampleRateHz: design.minSampleRateHz, maxGapMs: 100, maxErrorRate: MAX_ERROR_RATE };
   const configOf = (label: string): TransferConfig | null => {
     const c = byLabel.get(label);
-    return c ? { ...conditionConfig(design, c), ...bias } : null;
+    return c ? { ...conditionConfig(design, c), ...calibration.bias } : null;
   };
   const views: ParticipantSequenceView[] = [];
   let trajectory: ParticipantView["trajectory"] = null;
@@ -88,11 +89,15 @@ export function participantView(
     let replay: Trajectory | null = null;
     let broken: string | null = null;
     const first = rows[0];
+    const setup = replaySetupFor(design, first ? Number(first.amplitude) : design.task.amplitudes[0]!, calibration);
     if (s.gz && config) {
-      try {
-        replay = replayTrajectory(s.gz, config, first ? { x: Number(first.from_x), y: Number(first.from_y) } : { x: 0, y: 0 });
-      } catch (e) {
-        broken = (e as Error).message;
+      if ("reason" in setup) broken = setup.reason;
+      else {
+        try {
+          replay = replayTrajectory(s.gz, config, setup, first ? { x: Number(first.from_x), y: Number(first.from_y) } : { x: 0, y: 0 });
+        } catch (e) {
+          broken = (e as Error).message;
+        }
       }
     }
     if (!s.practice) {

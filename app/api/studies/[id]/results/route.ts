@@ -3,6 +3,7 @@ import { parseParams } from "@/lib/api/body";
 import { route } from "@/lib/api/respond";
 import { EXCLUSION_RULES } from "@/lib/analysis";
 import { db } from "@/lib/db";
+import { studyPathMeasures } from "@/lib/data/pathMeasures";
 import { assertStudyTeam, fetchResultsParticipants, fetchStudyDesign, fetchStudyTrialRecords } from "@/lib/data/results";
 import { buildResultsView } from "@/lib/results";
 import { fetchResearcherExclusions } from "@/lib/data/exclusions";
@@ -29,7 +30,12 @@ export const GET = route(async (request: Request, context: Ctx) => {
   const { study } = await assertStudyTeam(db, await getCurrentUser(), id);
   const design = await fetchStudyDesign(db, id);
   const participants = await fetchResultsParticipants(db, id);
-  const view = design ? buildResultsView(design, participants, await fetchStudyTrialRecords(db, id), { exclude: query.exclude, dropFlagged: query.drop, researcherExclusions: await fetchResearcherExclusions(db, id) }) : null;
+  let view = null;
+  if (design) {
+    const records = await fetchStudyTrialRecords(db, id);
+    const paths = await studyPathMeasures(db, design, participants, records);
+    view = buildResultsView(design, participants, records, { exclude: query.exclude, dropFlagged: query.drop, researcherExclusions: await fetchResearcherExclusions(db, id) }, paths);
+  }
   return Response.json(
     { study: { id: study.id, title: study.title, status: study.status }, hasDesign: design !== null, results: view, computedAt: new Date().toISOString() },
     { headers: { "cache-control": "no-store" } },

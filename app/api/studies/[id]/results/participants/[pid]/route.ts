@@ -3,10 +3,10 @@ import { parseParams } from "@/lib/api/body";
 import { route } from "@/lib/api/respond";
 import { db } from "@/lib/db";
 import {
-  assertStudyTeam, fetchCalibratedBias, fetchStreamBytes, fetchStreamMeta, fetchStudyDesign, fetchStudyParticipant, fetchStudyTrialRecords,
+  assertStudyTeam, fetchCalibrations, fetchStreamBytes, fetchStreamMeta, fetchStudyDesign, fetchStudyParticipant, fetchStudyTrialRecords,
 } from "@/lib/data/results";
 import { notFound } from "@/lib/errors";
-import { participantView } from "@/lib/results";
+import { NO_CALIBRATION, participantView } from "@/lib/results";
 import { getCurrentUser } from "@/lib/session";
 
 type Ctx = { params: Promise<{ id: string; pid: string }> };
@@ -24,7 +24,7 @@ export const GET = route(async (request: Request, context: Ctx) => {
   const metas = await fetchStreamMeta(db, pid);
   const streams = [];
   for (const m of metas) streams.push({ ...m, gz: await fetchStreamBytes(db, m.id) });
-  const view = participantView(design, participant.code, await fetchStudyTrialRecords(db, id, pid), streams, await fetchCalibratedBias(db, pid), stream ?? null);
+  const view = participantView(design, participant.code, await fetchStudyTrialRecords(db, id, pid), streams, (await fetchCalibrations(db, [pid])).get(pid) ?? NO_CALIBRATION, stream ?? null);
   return Response.json(
     { participant, streams: metas.map(({ quality: _q, ...m }) => m), view },
     { headers: { "cache-control": "no-store" } },
