@@ -3,14 +3,16 @@ import { basename } from "node:path";
 import { parseArgs } from "node:util";
 import { z } from "zod";
 import { analyzeTrialFile, EXCLUSION_RULES } from "../../lib/analysis";
+import { analyzeArchive } from "../../lib/export/analyzeArchive";
 import { FLAG_COLUMNS, TrialTableError } from "../../lib/trials";
 import { formatReport } from "./formatReport";
 
 const usage =
-  "usage: analyze FILE.csv [--json] [--start actual|nominal] [--exclude misfire|mt3sd|misfire+mt3sd|none] [--drop-flagged timed_out,recentered,clutched] [--unit px|mm|deg] [--geometry plane|sphere] [--anova tp,mt,errorRate] [--legacy]";
+  "usage: analyze FILE.csv | --archive FILE.zip [--json] [--start actual|nominal] [--exclude misfire|mt3sd|misfire+mt3sd|none] [--drop-flagged timed_out,recentered,clutched] [--unit px|mm|deg] [--geometry plane|sphere] [--anova tp,mt,errorRate] [--legacy]";
 
 const argsSchema = z.object({
   file: z.string().min(1),
+  archive: z.boolean(),
   json: z.boolean(),
   legacy: z.boolean(),
   start: z.enum(["actual", "nominal"]),
@@ -36,11 +38,12 @@ async function main(argv: string[]): Promise<number> {
         unit: { type: "string", default: "px" },
         geometry: { type: "string", default: "plane" },
         anova: { type: "string", default: "tp" },
+        archive: { type: "string" },
       },
     });
-    if (positionals.length !== 1) throw new Error("expected exactly one FILE.csv");
-    const { "drop-flagged": dropFlagged, ...rest } = values;
-    args = argsSchema.parse({ ...rest, dropFlagged: dropFlagged.split(",").filter(Boolean), anova: values.anova.split(",").filter(Boolean), file: positionals[0] });
+    const { "drop-flagged": dropFlagged, archive, ...rest } = values;
+    if (archive !== undefined ? positionals.length !== 0 : positionals.length !== 1) throw new Error("expected exactly one FILE.csv, or --archive FILE.zip");
+    args = argsSchema.parse({ ...rest, archive: archive !== undefined, dropFlagged: dropFlagged.split(",").filter(Boolean), anova: values.anova.split(",").filter(Boolean), file: archive ?? positionals[0] });
     if (args.geometry === "sphere" && args.unit !== "deg") throw new Error("--geometry sphere needs --unit deg (view directions in degrees)");
   } catch (err) {
     const detail = err instanceof z.ZodError ? err.issues.map((i) => `--${String(i.path[0] ?? "").replace(/[A-Z]/g, (c) => "-" + c.toLowerCase())}: ${i.message}`).join("; ") : (err as Error).message;
@@ -48,6 +51,13 @@ async function main(argv: string[]): Promise<number> {
     return 2;
   }
   try {
+    if (args.archive) {
+      // The archive says its unit and geometry (configurations.json); the exclusion choices are ours.
+      const { result, pathSource, pathProblems } = await analyzeArchive(args.file, { start: args.start, exclude: args.exclude, dropFlagged: args.dropFlagged, anova: args.anova });
+      const out = { ...result, archive: { pathSource, pathProblems } };
+      process.stdout.write(args.json ? JSON.stringify(out) + "\n" : formatReport(result, basename(args.file)));
+      return 0;
+    }
     const result = await analyzeTrialFile(args.file, {
       file: args.file,
       start: args.start,

@@ -6,13 +6,15 @@ import type { Queryable } from "@/lib/db";
 import { appendAudit } from "@/lib/data/audit";
 import { exportsRoot, studyExportDir } from "@/lib/data/exportFiles";
 import { listExclusions } from "@/lib/data/exclusions";
-import { fetchStudyDesign, TRIAL_RECORD_COLUMNS, whereInAnalysis, whereNotExcluded } from "@/lib/data/results";
+import { pathEntries } from "@/lib/data/pathMeasures";
+import { fetchCalibrations, fetchStudyDesign, fetchStudyTrialRecords, TRIAL_RECORD_COLUMNS, whereInAnalysis, whereNotExcluded } from "@/lib/data/results";
+import type { StoredPath } from "@/lib/export/analysisEntries";
 import {
   exportOptionsSchema, randomPseudonyms, stablePseudonym, writeArchive,
   type ArchiveSource, type ExportAnswer, type ExportOptions, type ExportParticipant, type ExportStream,
 } from "@/lib/export";
 import { openWithDataKey } from "@/lib/recruitment/dataKey";
-import type { TrialRecord } from "@/lib/results";
+import type { ParticipantStatus, TrialRecord } from "@/lib/results";
 
 export type ExportStatus = "queued" | "running" | "done" | "failed";
 
@@ -169,6 +171,16 @@ export async function databaseArchiveSource(db: Knex, studyId: number): Promise<
           read: async () => (await db("sequence_streams").where({ id: m.id }).first<{ stream_gz: Buffer | null } | undefined>("stream_gz"))?.stream_gz ?? null,
         };
       }
+    },
+    calibrations: () => fetchCalibrations(db, ids),
+    /** Path accuracy, one participant at a time (kept in path_measures; computed where missing). */
+    async paths(): Promise<StoredPath[]> {
+      const out: StoredPath[] = [];
+      for (const p of people) {
+        const { entries } = await pathEntries(db, design, [{ id: p.id, code: String(p.id), status: p.status as ParticipantStatus }], await fetchStudyTrialRecords(db, studyId, p.id));
+        out.push(...entries);
+      }
+      return out;
     },
   };
 }

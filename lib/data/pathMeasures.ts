@@ -7,6 +7,7 @@ import { fetchCalibrations } from "@/lib/data/results";
 import {
   geometryOf, NO_CALIBRATION, type PathStatus, PATH_METHOD_VERSION, pathMovementsOf, replaySetupFor, streamPaths, type ResultsParticipant, type TrialRecord,
 } from "@/lib/results";
+import type { StoredPath } from "@/lib/export/analysisEntries";
 import { conditionConfig, conditionsOf, type StudyDesign } from "@/lib/study/design";
 
 
@@ -31,18 +32,37 @@ export async function studyPathMeasures(
   records: readonly TrialRecord[],
   budgetMs = 4000,
 ): Promise<{ measures: Map<string, PathAccuracy>; status: PathStatus }> {
+  const codeOf = new Map(participants.map((p) => [p.id, p.code]));
+  const { entries, status } = await pathEntries(q, design, participants, records, budgetMs);
+  const measures = new Map<string, PathAccuracy>();
+  for (const e of entries) measures.set(movementKey(codeOf.get(e.participantId)!, e.condition, e.block, e.sequence, e.trial), e.measures);
+  return { measures, status };
+}
+
+/**
+ * studyPathMeasures' work, by participant id (pathEntries): the path measures of every movement
+ * that has them, and the status. The archive uses it one participant at a time.
+ * Cost and throws as studyPathMeasures.
+ */
+export async function pathEntries(
+  q: Queryable,
+  design: StudyDesign,
+  participants: readonly Pick<ResultsParticipant, "id" | "code" | "status">[],
+  records: readonly TrialRecord[],
+  budgetMs = Number.POSITIVE_INFINITY,
+): Promise<{ entries: StoredPath[]; status: PathStatus }> {
   const people = participants.filter((p) => p.status !== "withdrawn");
   const codeOf = new Map(people.map((p) => [p.id, p.code]));
-  const measures = new Map<string, PathAccuracy>();
+  const entries: StoredPath[] = [];
   const status: PathStatus = { sequences: 0, computed: 0, pending: 0, notComputable: [] };
-  if (people.length === 0) return { measures, status };
+  if (people.length === 0) return { entries, status };
   const streams = await q("sequence_streams")
     .whereIn("participant_id", people.map((p) => p.id))
     .andWhere("practice", false)
     .whereNotNull("stream_gz")
     .orderBy("id")
     .select<{ id: number; participant_id: number; condition: string; block: number; sequence: number }[]>("id", "participant_id", "condition", "block", "sequence");
-  if (streams.length === 0) return { measures, status };
+  if (streams.length === 0) return { entries, status };
   const cached = new Map(
     (await q("path_measures").whereIn("stream_id", streams.map((s) => s.id)).select<{ stream_id: number; inputs_hash: string; measures: unknown; note: string | null }[]>("stream_id", "inputs_hash", "measures", "note")).map((r) => [Number(r.stream_id), r]),
   );
@@ -65,7 +85,7 @@ export async function studyPathMeasures(
     status.sequences++;
     const calibration = calibrations.get(s.participant_id) ?? NO_CALIBRATION;
     const config = { ...conditionConfig(design, condition), ...calibration.bias };
-    const setup = replaySetupFor(design, Number(rows[0]!.amplitude), calibration);
+    const setup = replaySetupFor(design.task, Number(rows[0]!.amplitude), calibration);
     const hash = createHash("sha256").update(JSON.stringify([PATH_METHOD_VERSION, config, setup, geometry, design.task.type])).digest("hex");
     const ident = { participant: code, condition: s.condition, block: s.block, sequence: s.sequence };
     let stored = cached.get(s.id);
@@ -87,10 +107,10 @@ export async function studyPathMeasures(
     for (const m of parsed.data) {
       const value = { tre: 0, tac: 0, mdc: 0, odc: 0, mv: 0, me: 0, mo: 0 };
       for (const k of PATH_KEYS) value[k] = m[k] ?? Number.NaN;
-      measures.set(movementKey(code, s.condition, s.block, s.sequence, m.trial), value);
+      entries.push({ participantId: s.participant_id, condition: s.condition, block: s.block, sequence: s.sequence, trial: m.trial, measures: value });
     }
   }
-  return { measures, status };
+  return { entries, status };
 }
 
 async function computeOne(

@@ -13,11 +13,12 @@ export function* sequenceRows(sequences: readonly SequenceSummary[]): Generator<
 }
 
 /** cells.csv rows (cellRows), with the f_NAME levels of each condition. Cost: O(cells). @throws never. */
-export function cellRows(result: AnalysisResult, factorNames: readonly string[]): Row[] {
+export function cellRows(result: AnalysisResult, factorNames: readonly string[], betweenNames: readonly string[] = []): Row[] {
   const levels = new Map(result.conditions.map((c) => [c.condition, c.factors]));
   return result.cells.map((c) => ({
     participant: c.participant, condition: c.condition,
     ...Object.fromEntries(factorNames.map((f) => [`f_${f}`, levels.get(c.condition)?.[f] ?? null])),
+    ...Object.fromEntries(betweenNames.map((b) => [`b_${b}`, c.groups?.[b] ?? null])),
     tp: num(c.tp), mt: num(c.mt), error_rate: num(c.errorRate), we: num(c.we), ide: num(c.ide), sequences: c.sequences,
   }));
 }
@@ -35,6 +36,9 @@ export function conditionRows(result: AnalysisResult, factorNames: readonly stri
       mt_mean: num(c.mt.mean), mt_sd: num(c.mt.sd), mt_ci95_low: num(c.mt.ci95[0]), mt_ci95_high: num(c.mt.ci95[1]),
       error_rate_mean: num(c.errorRate.mean), error_rate_sd: num(c.errorRate.sd), error_rate_ci95_low: num(c.errorRate.ci95[0]), error_rate_ci95_high: num(c.errorRate.ci95[1]),
       regression_intercept: fit ? num(fit.intercept) : null, regression_slope: fit ? num(fit.slope) : null, regression_r2: fit ? num(fit.r2) : null,
+      path_movements: c.path?.movements ?? null,
+      path_tre: num(c.path?.tre), path_tac: num(c.path?.tac), path_mdc: num(c.path?.mdc), path_odc: num(c.path?.odc),
+      path_mv: num(c.path?.mv), path_me: num(c.path?.me), path_mo: num(c.path?.mo),
     };
   });
 }

@@ -1,6 +1,8 @@
 import type { StudyDesign } from "../study/design";
 import type { ResearcherExclusion } from "../results/buildResultsView";
+import type { ParticipantCalibration } from "../results/participantCalibration";
 import type { TrialRecord } from "../results/trialRecord";
+import type { StoredPath } from "./analysisEntries";
 
 /** A participant as the archive sees them (withdrawn participants are never given). */
 export interface ExportParticipant {
@@ -58,4 +60,8 @@ export interface ArchiveSource {
   trials(): AsyncIterable<TrialRecord>;
   answers(): AsyncIterable<ExportAnswer>;
   streams(): AsyncIterable<ExportStream>;
+  /** Each participant's calibration (bias, screen scale), for calibration.csv; optional. */
+  calibrations?(): Promise<ReadonlyMap<number, ParticipantCalibration>>;
+  /** Path accuracy per movement, computed from the streams; optional. */
+  paths?(): Promise<StoredPath[]>;
 }

@@ -107,14 +107,14 @@ export function sequencesTableSpec(unit: string): TableSpec {
 }
 
 /** cells.csv: mean of means per participant × condition. */
-export function cellsTableSpec(unit: string, factorNames: readonly string[]): TableSpec {
+export function cellsTableSpec(unit: string, factorNames: readonly string[], betweenNames: readonly string[] = []): TableSpec {
   return {
     name: "cells",
     path: "cells.csv",
     title: "Participant × condition means",
     description: "The mean of a participant's sequence values in one condition (mean of means); the statistics run on these.",
     fields: [
-      PARTICIPANT, CONDITION, ...factorFields(factorNames),
+      PARTICIPANT, CONDITION, ...factorFields(factorNames), ...betweenFields(betweenNames),
       { name: "tp", type: "number", unit: "bits/s", description: "mean throughput over the participant's sequences in this condition" },
       { name: "mt", type: "number", unit: "ms", description: "mean movement time" },
       { name: "error_rate", type: "number", unit: "1", description: "mean error rate, fraction 0..1", constraints: { minimum: 0, maximum: 1 } },
@@ -126,6 +126,13 @@ export function cellsTableSpec(unit: string, factorNames: readonly string[]): Ta
   };
 }
 
+/** Path accuracy means per condition (paths.csv has them per movement); empty without streams. */
+const PATH_MEAN_FIELDS = (unit: string): FieldSpec[] => [
+  { name: "path_movements", type: "integer", description: "movements with path measures (their means follow; empty when none)" },
+  ...(["tre", "tac", "mdc", "odc"] as const).map((k): FieldSpec => ({ name: `path_${k}`, type: "number", description: `mean ${k.toUpperCase()} per movement: the mean over participants of their means in this condition` })),
+  ...(["mv", "me", "mo"] as const).map((k): FieldSpec => ({ name: `path_${k}`, type: "number", ...(unit ? { unit } : {}), description: `mean ${k.toUpperCase()} per movement: the mean over participants of their means in this condition` })),
+];
+
 const interval = (prefix: string, unit: string, what: string): FieldSpec[] => [
   { name: `${prefix}_mean`, type: "number", unit, description: `mean ${what} over participants` },
   { name: `${prefix}_sd`, type: "number", unit, description: `sample SD of ${what} over participants` },
@@ -134,7 +141,7 @@ const interval = (prefix: string, unit: string, what: string): FieldSpec[] => [
 ];
 
 /** conditions.csv: per-condition summaries over participants. */
-export function conditionsTableSpec(factorNames: readonly string[]): TableSpec {
+export function conditionsTableSpec(factorNames: readonly string[], unit = ""): TableSpec {
   return {
     name: "conditions",
     path: "conditions.csv",
@@ -149,6 +156,7 @@ export function conditionsTableSpec(factorNames: readonly string[]): TableSpec {
       { name: "regression_intercept", type: "number", unit: "ms", description: "intercept a of MT on IDe" },
       { name: "regression_slope", type: "number", unit: "ms/bit", description: "slope b of MT on IDe" },
       { name: "regression_r2", type: "number", unit: "1", description: "coefficient of determination of the fit" },
+      ...PATH_MEAN_FIELDS(unit),
     ],
     primaryKey: ["condition"],
   };

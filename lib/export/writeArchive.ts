@@ -6,6 +6,7 @@ import { pipeline } from "node:stream/promises";
 import { ZipArchive, type Archiver } from "archiver";
 import { analysisOptionsSchema } from "../analysis/options";
 import { buildResult } from "../analysis/buildResult";
+import { sequenceKey } from "../analysis/sequenceInfo";
 import { TrialAccumulator } from "../analysis/trialAccumulator";
 import type { AnalysisResult } from "../analysis/result";
 import type { TrialRow } from "../trials/trialRow";
@@ -18,6 +19,7 @@ import { buildCodebook } from "./codebook";
 import { csvLine } from "./csvLine";
 import { buildDataPackage } from "./dataPackage";
 import { kAnonymity, type KAnonymityResult } from "./kAnonymity";
+import { calibrationRows, calibrationTableSpec, CONFIGURATIONS_FILE, configurationsOf, pathsForArchive, pathsTableSpec } from "./analysisEntries";
 import { buildMethods } from "./methods";
 import type { ExportOptions } from "./options";
 import { participantRows, QUASI_IDENTIFIERS } from "./participantRows";
@@ -157,6 +159,8 @@ export async function writeArchive(
     onProgress(0, "movements");
     const trialsSpec = trialsTableSpec(unit, factorNames, betweenNames);
     let movements = 0;
+    /** The sequences trials.csv holds: paths.csv holds only theirs (nothing the source left out). */
+    const sequencesWritten = new Set<string>();
     const analyse = async (): Promise<AnalysisResult> => {
       const acc = new TrialAccumulator(analysisOptions);
       async function* trialChunks(): AsyncGenerator<string> {
@@ -168,6 +172,7 @@ export async function writeArchive(
           const row: TrialRow & { line?: number } = trialRowFromRecord(rec, pseudonymOf(rec.participant_id), factors);
           row.line = ++line;
           if (betweenNames.length > 0) row.groups = groupsOf.get(rec.participant_id) ?? {};
+          sequencesWritten.add(sequenceKey(row.participant, row.condition, row.block, row.sequence));
           acc.add(row);
           chunk += formatTrialRow(row, factorNames, { flags: true, between: betweenNames }) + "\n";
           movements++;
@@ -180,19 +185,24 @@ export async function writeArchive(
         if (chunk) yield chunk;
       }
       await add("trials.csv", Readable.from(trialChunks()));
-      return buildResult(acc, analysisOptions, [...factorNames, ...betweenNames]);
+      return buildResult(acc, analysisOptions, [...factorNames, ...betweenNames], paths.byKey.size > 0 ? paths.byKey : undefined);
     };
+    // path accuracy from the streams (computed on the server, kept in the database)
+    const paths = pathsForArchive(source.paths ? (await source.paths()).filter((p) => pseudonyms.has(p.participantId)) : [], pseudonymOf);
     const seqSpec = sequencesTableSpec(unit);
-    const cellSpec = cellsTableSpec(unit, factorNames);
-    const condSpec = conditionsTableSpec(factorNames);
+    const cellSpec = cellsTableSpec(unit, factorNames, betweenNames);
+    const condSpec = conditionsTableSpec(factorNames, unit);
+    const pathSpec = pathsTableSpec(unit);
     /** The summary tables; returns only the few figures the methods text needs, so the sequences can go. */
     const summaries = async () => {
       const result = await analyse();
 
       onProgress(trialWeight, "summaries");
       await add("sequences.csv", Readable.from(csvChunks(seqSpec.fields.map((f) => f.name), sequenceRows(result.sequences))));
-      await add("cells.csv", Readable.from(csvChunks(cellSpec.fields.map((f) => f.name), cellRows(result, factorNames))));
+      await add("cells.csv", Readable.from(csvChunks(cellSpec.fields.map((f) => f.name), cellRows(result, factorNames, betweenNames))));
       await add("conditions.csv", Readable.from(csvChunks(condSpec.fields.map((f) => f.name), conditionRows(result, factorNames))));
+      paths.rows = paths.rows.filter((r) => sequencesWritten.has(sequenceKey(String(r.participant), String(r.condition), Number(r.block), Number(r.sequence))));
+      if (paths.rows.length > 0) await add("paths.csv", Readable.from(csvChunks(pathSpec.fields.map((f) => f.name), paths.rows)));
       const ids = result.sequences.map((q) => q.id).filter(Number.isFinite);
       const ides = result.sequences.map((q) => q.ide).filter(Number.isFinite);
       const range = (xs: number[]): [number, number] | null => (xs.length ? [xs.reduce((m, x) => Math.min(m, x)), xs.reduce((m, x) => Math.max(m, x))] : null);
@@ -245,6 +255,15 @@ export async function writeArchive(
     }
     await add("questionnaires.csv", Readable.from(csvChunks(qSpec.fields.map((f) => f.name), answerRows())));
 
+    // configurations.json (always) and calibration.csv (with the streams): what `analyze --archive` replays the streams with
+    await add(CONFIGURATIONS_FILE, JSON.stringify(configurationsOf(design), null, 2) + "\n");
+    const calSpec = calibrationTableSpec();
+    const withCalibration = options.includeStreams && source.calibrations !== undefined;
+    if (withCalibration) {
+      const cals = await source.calibrations!();
+      await add("calibration.csv", Readable.from(csvChunks(calSpec.fields.map((f) => f.name), calibrationRows(source.participants, cals, pseudonymOf))));
+    }
+
     // streams/: the stored gzip replay CSVs, one at a time, not recompressed
     let streams = 0;
     if (options.includeStreams) {
@@ -260,7 +279,7 @@ export async function writeArchive(
     }
 
     onProgress(0.96, "descriptions");
-    const tables: TableSpec[] = [trialsSpec, seqSpec, cellSpec, condSpec, partSpec, exclSpec, qSpec];
+    const tables: TableSpec[] = [trialsSpec, seqSpec, cellSpec, condSpec, ...(paths.rows.length > 0 ? [pathSpec] : []), partSpec, exclSpec, qSpec, ...(withCalibration ? [calSpec] : [])];
     const notes = [
       `Participants are named by ${options.pseudonyms === "stable" ? "stable pseudonyms (a keyed hash; the same in every archive of this study)" : "random pseudonyms drawn for this archive only"}; participant codes, e-mail addresses, names, session links, IP addresses and user agents are not in the archive.`,
       options.includeDates ? "Calendar dates are included (the researcher chose so)." : "Times are relative to each participant's session start; no calendar dates.",
@@ -271,6 +290,12 @@ export async function writeArchive(
       "Text cells that would begin with =, +, -, @, a tab or a carriage return begin with a single quote (') instead, so that a spreadsheet shows them as text and never runs them as formulas (OWASP, CSV Injection); numbers are never changed. Remove that quote before comparing such labels or answers with the study's own.",
       `Exclusions by the research team: ${exclusions.filter((e) => e.scope === "participant").length} participant(s) and ${exclusions.filter((e) => e.scope === "sequence").length} sequence(s), ${exclusions.reduce((a, e) => a + e.movements, 0)} movements; they are listed with their reasons in exclusions.csv and not in trials.csv.`,
     ];
+    notes.push(
+      `${CONFIGURATIONS_FILE} holds the task and each condition's full transfer configuration under its number (the c<number> of the stream files, the order of conditions.csv); with the raw streams and calibration.csv, \`npm run analyze -- --archive FILE.zip\` replays them and recomputes every table, path accuracy included.`,
+      paths.rows.length > 0
+        ? `paths.csv holds path accuracy for ${paths.rows.length} movements, computed from the raw streams; conditions.csv has their means (path_*).`
+        : "No path accuracy: no sequence had a stored stream that reproduced its recorded selections.",
+    );
     const streamSection = options.includeStreams
       ? ["## streams/", "", "One gzip file per sequence, `streams/<participant>/b<block>-c<condition number>-s<sequence>.csv.gz`, in the raw sensor stream format: `t_ms, gyro_x, gyro_y, gyro_z` (deg/s about the device axes of the W3C Device Orientation and Motion specification), `accel_x, accel_y, accel_z` (m/s², including gravity), `stick_x, stick_y` (−1..1), `buttons` (bitmask), `screen_angle` (deg); `npm run replay` reads them. Condition numbers count from 1 in the order of conditions.csv.", ""]
       : [];

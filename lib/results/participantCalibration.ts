@@ -20,13 +20,13 @@ export const NO_CALIBRATION: ParticipantCalibration = { bias: {}, pixelsPerMm: n
  * (pixelsPerTaskUnit: 1 for px, the card's px/mm for mm, the visual-angle scale for visual degrees).
  * Cost: O(1).
  * @throws never; returns the reason when the calibration the unit needs was not recorded.
- * @example replaySetupFor(design, 300, NO_CALIBRATION) // { displayMode: "cursor", pixelsPerUnit: 1 } for a px study
+ * @example replaySetupFor(design.task, 300, NO_CALIBRATION) // { displayMode: "cursor", pixelsPerUnit: 1 } for a px study
  */
-export function replaySetupFor(design: StudyDesign, amplitude: number, cal: ParticipantCalibration): ReplaySetup | { reason: string } {
-  const displayMode = design.task.displayMode;
+export function replaySetupFor(task: Pick<StudyDesign["task"], "displayMode" | "unit">, amplitude: number, cal: ParticipantCalibration): ReplaySetup | { reason: string } {
+  const displayMode = task.displayMode;
   if (displayMode === "view") return { displayMode, pixelsPerUnit: 1 };
   try {
-    return { displayMode, pixelsPerUnit: pixelsPerTaskUnit(design.task.unit, amplitude, cal) };
+    return { displayMode, pixelsPerUnit: pixelsPerTaskUnit(task.unit, amplitude, cal) };
   } catch (e) {
     return { reason: (e as Error).message.replace(/^pixelsPerTaskUnit: /, "") };
   }

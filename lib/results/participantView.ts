@@ -89,7 +89,7 @@ export function participantView(
     let replay: Trajectory | null = null;
     let broken: string | null = null;
     const first = rows[0];
-    const setup = replaySetupFor(design, first ? Number(first.amplitude) : design.task.amplitudes[0]!, calibration);
+    const setup = replaySetupFor(design.task, first ? Number(first.amplitude) : design.task.amplitudes[0]!, calibration);
     if (s.gz && config) {
       if ("reason" in setup) broken = setup.reason;
       else {

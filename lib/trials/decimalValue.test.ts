@@ -1,6 +1,10 @@
 import fc from "fast-check";
-import { describe, expect, it } from "vitest";
+import { describe, expect, it, vi } from "vitest";
+
 import { decimalValue } from "./decimalValue";
+
+// Property tests over many random inputs: allow for a busy machine.
+vi.setConfig({ testTimeout: 30_000 });
 
 // Reference: the ECMAScript StringToNumber conversion (ECMA-262 §7.1.4.1.1) as the runtime's
 // Number() implements it; decimalValue must give the identical double (Object.is, so −0 counts).

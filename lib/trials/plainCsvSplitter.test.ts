@@ -1,8 +1,11 @@
 import { Readable } from "node:stream";
 import fc from "fast-check";
-import { describe, expect, test } from "vitest";
+import { describe, expect, test, vi } from "vitest";
 import { readTrialTable } from "./readTrialTable";
 import { TRIAL_COLUMNS } from "./columns";
+
+// Property tests over many random tables: allow for a busy machine.
+vi.setConfig({ testTimeout: 30_000 });
 
 // Reference: csv-parse (npm, RFC 4180 parser) through the same row checks. The fast path must give
 // exactly what it gives: the same rows with the same lines, or the same error message.

@@ -119,7 +119,7 @@ describe("anonymised archive of the finished demo study", () => {
     const { files, summary } = await buildArchive("dp", { pseudonyms: "random", includeStreams: false, includeDates: true, includeFreeText: true });
     const descriptor = JSON.parse(files.get("datapackage.json")!.toString()) as { resources: { name: string; path: string; schema: { fields: { name: string; type: string; unit?: string; description?: string; constraints?: { required?: boolean } }[] } }[] };
     expect(validateDataPackage(descriptor)).toEqual([]);
-    expect(descriptor.resources.map((r) => r.path).sort()).toEqual(["cells.csv", "conditions.csv", "exclusions.csv", "participants.csv", "questionnaires.csv", "sequences.csv", "trials.csv"]);
+    expect(descriptor.resources.map((r) => r.path).sort()).toEqual(["cells.csv", "conditions.csv", "exclusions.csv", "participants.csv", "paths.csv", "questionnaires.csv", "sequences.csv", "trials.csv"]);
     for (const r of descriptor.resources) {
       const text = files.get(r.path)!.toString("utf8");
       const rows = parse(text, { relax_column_count: false }) as string[][];
@@ -180,6 +180,29 @@ describe("anonymised archive of the finished demo study", () => {
       const mine = page.cells.find((x) => x.participant === byCode.get(c.participant) && x.condition === c.condition)!;
       expect(c.tp).toBeCloseTo(mine.tp, 10);
     }
+  });
+
+  it("analyze --archive replays the archive's streams with its configurations and calibration: the same path accuracy as the server, and the same statistics", async () => {
+    const { path, files } = await buildArchive("replay", { pseudonyms: "random", includeStreams: true, includeDates: false, includeFreeText: false });
+    for (const f of ["configurations.json", "calibration.csv", "paths.csv"]) expect(files.has(f), f).toBe(true);
+    const cli = JSON.parse(execFileSync("npx", ["tsx", "--no-warnings", "experiments/cli/analyze.ts", "--archive", path, "--json"], { encoding: "utf8", maxBuffer: 64 * 1024 * 1024 })) as {
+      archive: { pathSource: string; pathProblems: unknown[] };
+      conditions: { condition: string; path?: { tre: number; mdc: number; mv: number; movements: number } }[];
+      anova: { effect: string; F: number }[];
+    };
+    expect(cli.archive).toEqual({ pathSource: "streams", pathProblems: [] });
+    // The server's means per condition, as conditions.csv carries them.
+    const rows = parse(files.get("conditions.csv")!.toString("utf8"), { columns: true }) as Record<string, string>[];
+    for (const c of cli.conditions) {
+      const row = rows.find((r) => r.condition === c.condition)!;
+      expect(c.path!.movements).toBe(Number(row.path_movements));
+      expect(c.path!.tre).toBeCloseTo(Number(row.path_tre), 9);
+      expect(c.path!.mdc).toBeCloseTo(Number(row.path_mdc), 9);
+      expect(c.path!.mv).toBeCloseTo(Number(row.path_mv), 9);
+    }
+    const design = (await fetchStudyDesign(db, studyId))!;
+    const page = buildResultsView(design, await fetchResultsParticipants(db, studyId), await fetchStudyTrialRecords(db, studyId)).analysis!;
+    cli.anova.forEach((a, i) => expect(a.F).toBeCloseTo(page.anova[i]!.F!, 8));
   });
 
   it("writes the file only when complete, and its SHA-256 and size are those of the bytes on disk", async () => {
