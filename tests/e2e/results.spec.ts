@@ -25,6 +25,8 @@ test("a researcher opens the demo study's results, sees the plots, exports, watc
   // 12 completed participants, 4 conditions on the TP chart's axis
   await expect(page.getByTestId("progress-table")).toContainText("12 of 12 planned have completed");
   for (const c of ["motion / low", "motion / high", "touch / low", "touch / high"]) await expect(page.getByTestId("figure-tp").locator("svg")).toContainText(c);
+  // path accuracy from the recorded streams: 12 participants × 4 conditions × 8 sequences
+  await expect(page.getByTestId("path-accuracy")).toContainText(/Path measures from the recorded streams: \d+ of 384 sequences/);
   await expect(page.getByRole("heading", { name: "Statistics" })).toBeVisible();
   await expect(page.getByRole("cell", { name: /^(gain:technique|technique:gain)$/ }).first()).toBeVisible();
   await expect(page.getByTestId("exclusions")).toContainText(/movements removed: \d+ as misfires/);
