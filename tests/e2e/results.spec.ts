@@ -60,7 +60,7 @@ test("a researcher opens the demo study's results, sees the plots, exports, watc
 
   // a participant page: trajectory and sequences with flags
   await page.goto(`/studies/${study.id}/results`);
-  await page.getByRole("table").filter({ hasText: "movements" }).getByRole("link").first().click();
+  await page.getByRole("region", { name: "Participants", exact: true }).getByRole("link").first().click();
   await expect(page.getByTestId("figure-trajectory")).toBeVisible({ timeout: 30_000 }); // replays the streams
   await expect(page.getByTestId("participant-sequences")).toContainText("motion");
   await api.dispose();
