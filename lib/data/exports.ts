@@ -119,6 +119,12 @@ export async function databaseArchiveSource(db: Knex, studyId: number): Promise<
     .select<{ id: number; status: string; cb_row: number | null; condition_order: unknown; between_levels: unknown; started_at: Date | null; completed_at: Date | null; version: number | null }[]>(
       "p.id", "p.status", "p.cb_row", "p.condition_order", "p.between_levels", "p.started_at", "p.completed_at", "v.version as version",
     );
+  // everyone who consented (the same scope), withdrawn ones included, for the methods text
+  const history = (await whereInAnalysis(db("participants as p").where("p.study_id", studyId))
+    .whereNot("p.status", "invited")
+    .select(db.raw("COUNT(*) AS recruited"), db.raw("SUM(p.status = 'withdrawn') AS withdrawn"), db.raw("SUM(p.status = 'withdrawn' AND p.erased_at IS NOT NULL) AS erased"))
+    .first()) as { recruited: number | string; withdrawn: number | string | null; erased: number | string | null };
+  const recruitment = { recruited: Number(history.recruited), withdrawn: Number(history.withdrawn ?? 0), erased: Number(history.erased ?? 0) };
   const exclusions = (await listExclusions(db, studyId)).filter((e) => people.some((p) => p.id === e.participantId));
   const excludedPeople = new Set(exclusions.filter((e) => e.scope === "participant").map((e) => e.participantId));
   const ids = people.map((p) => p.id);
@@ -142,6 +148,7 @@ export async function databaseArchiveSource(db: Knex, studyId: number): Promise<
     study: { id: study.id, title: study.title, design, createdAt: study.created_at },
     consentVersions: consentVersions.map((v) => ({ version: v.version, sha256: v.sha256, status: v.status, bodyMd: v.body_md })),
     participants,
+    recruitment,
     exclusions: exclusions.map((e) => ({ participantId: e.participantId, scope: e.scope, condition: e.condition, block: e.block, sequence: e.sequence, reason: e.reason, movements: e.movements })),
     counts: { trials: await countOf("trials", { practice: false }), streams: await countOf("sequence_streams") },
     async *trials(): AsyncIterable<TrialRecord> {

@@ -1,4 +1,5 @@
 import type { StudyDesign } from "../study/design";
+import type { RecruitmentCounts } from "./methods";
 import type { ResearcherExclusion } from "../results/buildResultsView";
 import type { ParticipantCalibration } from "../results/participantCalibration";
 import type { TrialRecord } from "../results/trialRecord";
@@ -53,6 +54,8 @@ export interface ArchiveSource {
   study: { id: number; title: string; design: StudyDesign; createdAt: Date };
   consentVersions: { version: number; sha256: string | null; status: string; bodyMd: string }[];
   participants: ExportParticipant[];
+  /** Everyone who consented, withdrawn ones included (the methods text); absent for sources without that history. */
+  recruitment?: RecruitmentCounts;
   /** The team's exclusions, already honoured by trials() and streams(). */
   exclusions?: ExportExclusion[];
   counts: { trials: number; streams: number };

@@ -206,7 +206,16 @@ export async function writeArchive(
       const ids = result.sequences.map((q) => q.id).filter(Number.isFinite);
       const ides = result.sequences.map((q) => q.ide).filter(Number.isFinite);
       const range = (xs: number[]): [number, number] | null => (xs.length ? [xs.reduce((m, x) => Math.min(m, x)), xs.reduce((m, x) => Math.max(m, x))] : null);
-      return { idRange: range(ids), ideRange: range(ides), movements: result.movements, excluded: result.excluded, sequencesDropped: result.sequencesDropped.length, conditions: result.conditions.length };
+      const droppedReasons = new Map<string, number>();
+      for (const d of result.sequencesDropped) droppedReasons.set(d.reason, (droppedReasons.get(d.reason) ?? 0) + 1);
+      return {
+        idRange: range(ids), ideRange: range(ides), movements: result.movements, excluded: result.excluded, sequencesDropped: result.sequencesDropped.length, conditionCount: result.conditions.length,
+        exclusionCounts: result.exclusions, dropFlagged: result.dropFlagged, timeoutsKept: result.timeoutsKept, geometry: result.geometry,
+        sequencesDroppedReasons: [...droppedReasons].map(([reason, sequences]) => ({ reason, sequences })),
+        missing: { participantsExcluded: result.missing.participantsExcluded, participantsIncluded: result.missing.participantsIncluded, participants: result.missing.participants },
+        withData: new Set(result.sequences.map((q) => q.participant)).size,
+        pathMovements: result.pathMovements?.length ?? 0,
+      };
     };
     const facts = await summaries();
 
@@ -310,13 +319,9 @@ export async function writeArchive(
       buildMethods(source.study.title, design, {
         participants: source.participants.length,
         completed: source.participants.filter((p) => p.status === "completed").length,
-        withdrawnLeftOut: 0,
+        recruitment: source.recruitment,
+        ...facts,
         conditions: conditions.map((c) => c.label),
-        idRange: facts.idRange,
-        ideRange: facts.ideRange,
-        movements: facts.movements,
-        excluded: facts.excluded,
-        sequencesDropped: facts.sequencesDropped,
         researcherExclusions: exclusions.map((e) => ({ scope: e.scope, reason: e.reason, movements: e.movements })),
         protocolVersions: countVersions(source.participants),
         start: analysisOptions.start,
@@ -331,7 +336,7 @@ export async function writeArchive(
     await written;
     await rename(tmpPath, outPath);
     onProgress(1, "done");
-    return { sha256: counter.hash.digest("hex"), sizeBytes: counter.bytes, files, kAnonymity: k, warnings, movements, streams, analysis: { movements: facts.movements, excluded: facts.excluded, conditions: facts.conditions } };
+    return { sha256: counter.hash.digest("hex"), sizeBytes: counter.bytes, files, kAnonymity: k, warnings, movements, streams, analysis: { movements: facts.movements, excluded: facts.excluded, conditions: facts.conditionCount } };
   } catch (err) {
     archive.abort();
     await written.catch(() => {});

@@ -4,10 +4,20 @@ import { nominalIndexOfDifficulty, ringAmplitude, ringTargets, ringVisitingOrder
 const EPS = 1e-9;
 
 describe("ring visiting order", () => {
-  // Common practice (ISO 9241-411 multi-directional task): order k·(n+1)/2 mod n; for n = 13 it
-  // starts 0, 7, 1, 8, 2, ... (worked case stated in the task description of the standard's practice).
-  test("n = 13 worked case", () => {
+  // Common practice for the multi-directional task (from memory, not re-read in ISO 9241-411):
+  // the order k·(n+1)/2 mod n, which for n = 13 starts 0, 7, 1, 8, 2, ... The sequence below is
+  // written out by hand from that rule; the property that matters is checked on its own next.
+  test("n = 13: 0, 7, 1, 8, 2, … (the rule k·(n+1)/2 mod n, written out by hand)", () => {
     expect(ringVisitingOrder(13)).toEqual([0, 7, 1, 8, 2, 9, 3, 10, 4, 11, 5, 12, 6, 0]);
+  });
+  test("every hop goes (n ± 1)/2 places round the ring: across the circle, never to a neighbour", () => {
+    for (const n of [5, 9, 13, 25]) {
+      const order = ringVisitingOrder(n);
+      for (let i = 1; i < order.length; i++) {
+        const step = (order[i]! - order[i - 1]! + n) % n;
+        expect([(n - 1) / 2, (n + 1) / 2]).toContain(step);
+      }
+    }
   });
   test("every target is visited once before returning", () => {
     for (const n of [3, 5, 9, 13, 25]) {

@@ -205,6 +205,36 @@ describe("anonymised archive of the finished demo study", () => {
     cli.anova.forEach((a, i) => expect(a.F).toBeCloseTo(page.anova[i]!.F!, 8));
   });
 
+  it("the methods text counts from the data who consented, withdrew (and asked for erasure), remained and completed", async () => {
+    // The demo seeds 12 simulated participants who all completed (db/seeds/demo-finished-study.ts).
+    // Here two withdraw, one of them with erasure; then another loses a whole condition to the team's
+    // exclusion of each of its sequences, so it lacks a cell and must be named as left out of the tests.
+    const people = (await db("participants").where({ study_id: studyId }).orderBy("id").select("id", "code")) as { id: number; code: string }[];
+    const [w1, w2] = people.slice(-2);
+    try {
+      await db("participants").whereIn("id", [w1!.id, w2!.id]).update({ status: "withdrawn" });
+      await db("participants").where({ id: w2!.id }).update({ erased_at: new Date() });
+      const { files } = await buildArchive("methods-counts", { pseudonyms: "random", includeStreams: false, includeDates: false, includeFreeText: false });
+      const methods = files.get("methods.md")!.toString();
+      expect(methods).toContain("12 people consented to take part; 2 withdrew (1 of them asked for their data to be erased) and are not included. Of the 10 remaining, 10 completed the session.");
+      expect(methods).toMatch(/misfires when .*\(common practice\): \d+\. In all \d+ of \d+ movements/);
+      expect(methods).toContain("Every participant had a value in every condition, so all 10 entered the tests.");
+      expect(methods).toContain("Huynh–Feldt");
+      expect(methods).toContain("All participants ran protocol version 1.");
+
+      const first = people[0]!;
+      const runs = (await db("trials").where({ participant_id: first.id, condition_index: 0, practice: false }).distinct("block", "sequence")) as { block: number; sequence: number }[];
+      expect(runs.length).toBeGreaterThan(0);
+      await db("exclusions").insert(runs.map((r) => ({ study_id: studyId, participant_id: first.id, scope: "sequence", condition_index: 0, block: r.block, sequence: r.sequence, reason: "sensor rate fell below 30 Hz" })));
+      const again = (await buildArchive("methods-missing", { pseudonyms: "random", includeStreams: false, includeDates: false, includeFreeText: false })).files.get("methods.md")!.toString();
+      expect(again).toMatch(/1 participant lacked a value in some condition and was left out of the ANOVA, the post hoc tests and the Friedman test \(9 remained\): \S+ \(/);
+      expect(again).toContain(`The research team excluded ${runs.length} sequences`);
+    } finally {
+      await db("exclusions").where({ study_id: studyId, reason: "sensor rate fell below 30 Hz" }).delete();
+      await db("participants").whereIn("id", [w1!.id, w2!.id]).update({ status: "completed", erased_at: null });
+    }
+  });
+
   it("writes the file only when complete, and its SHA-256 and size are those of the bytes on disk", async () => {
     const { path, summary } = await buildArchive("hash", { pseudonyms: "random", includeStreams: true, includeDates: false, includeFreeText: false });
     const bytes = readFileSync(path);
