@@ -7,7 +7,7 @@ import { readZip } from "../fixtures/readZip";
 import { apiAs, apiAsRole, demo, signInWithForm } from "./helpers";
 
 test("a researcher opens the demo study's results, sees the plots, exports, watches progress and downloads", async ({ page }) => {
-  test.setTimeout(180_000); // several recomputations of the analysis and an export, on a shared machine
+  test.setTimeout(300_000); // several recomputations of the analysis, path accuracy replayed from 384 streams within a time budget per request, and an export, on a shared machine
   const owner = demo("researcher");
   await signInWithForm(page, owner.email, owner.password);
   await page.waitForURL(/\/studies/);
