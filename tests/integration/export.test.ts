@@ -26,6 +26,7 @@ const LEAKY = {
   typedName: "Lena Marjatta Virtanen",
   ip: "203.0.113.77",
   userAgent: "Mozilla/5.0 (Linux; Android 14; Pixel 8 Build/UQ1A) AppleWebKit/537.36 (KHTML, like Gecko) Chrome/126.0 Mobile Safari/537.36",
+  panelId: "PANEL-5bd1e9c0a7", // a recruitment panel's participant id: kept for matching payments, never exported
 };
 let needles: string[] = [];
 
@@ -47,6 +48,7 @@ beforeAll(async () => {
   await db("participants").where({ id: p.id }).update({
     token_hash: createHash("sha256").update(LEAKY.token).digest("hex"),
     device: JSON.stringify({ inputs: ["gyroscope"], ip: LEAKY.ip, userAgent: LEAKY.userAgent }),
+    panel_id_encrypted: sealWithDataKey(LEAKY.panelId),
   });
   await db("participant_contacts").insert({ participant_id: p.id, email_encrypted: `plain-for-test:${LEAKY.email}` }).onConflict("participant_id").merge();
   await db("consent_records").where({ participant_id: p.id }).update({ typed_name_encrypted: sealWithDataKey(LEAKY.typedName), device_summary: JSON.stringify({ ip: LEAKY.ip, userAgent: LEAKY.userAgent }) });
@@ -55,7 +57,7 @@ beforeAll(async () => {
   const codes = (await db("participants").where({ study_id: studyId }).select("code", "token_hash", "completion_code")) as { code: string; token_hash: string; completion_code: string | null }[];
   needles = [
     ...DEMO_PEOPLE.flatMap((u) => [u.email, u.name, u.password]),
-    LEAKY.token, createHash("sha256").update(LEAKY.token).digest("hex"), LEAKY.email, LEAKY.typedName, LEAKY.ip, "Pixel 8 Build", "Mozilla/5.0",
+    LEAKY.token, createHash("sha256").update(LEAKY.token).digest("hex"), LEAKY.email, LEAKY.typedName, LEAKY.ip, "Pixel 8 Build", "Mozilla/5.0", LEAKY.panelId,
     ...codes.flatMap((c) => [c.code, c.token_hash, c.completion_code ?? ""]),
   ].filter((s) => s.length >= 6);
 });

@@ -17,7 +17,8 @@ import { changeRecruitment, insertParticipant } from "@/lib/recruitment/service"
 import { buildResultsView } from "@/lib/results";
 import { saveConsentDraft } from "@/lib/study/service/consent";
 import { saveDesign } from "@/lib/study/service/design";
-import { updateStudyMeta } from "@/lib/study/service/meta";
+import { saveInvitationText, updateStudyMeta } from "@/lib/study/service/meta";
+import { cloneStudy } from "@/lib/study/service/clone";
 import { decideReview, submitForReview } from "@/lib/study/service/review";
 import { studyDesignSchema, type StudyDesignInput } from "@/lib/study/design";
 import { batchFor } from "../e2e/fixtures/session-batch";
@@ -170,6 +171,47 @@ describe("amendments", () => {
     await consent(waiting.token);
     const versions = new Map((await fetchResultsParticipants(db, studyId)).map((p) => [p.id, p.protocolVersion]));
     expect([versions.get(early.id), versions.get(waiting.id)]).toEqual([1, 2]);
+    // the archive's participants say which version each ran (participants.csv's protocol_version)
+    const archived = new Map((await databaseArchiveSource(db, studyId)).participants.map((p) => [p.id, p.protocolVersion]));
+    expect([archived.get(early.id), archived.get(waiting.id)]).toEqual([1, 2]);
+  });
+});
+
+describe("cloning", () => {
+  it("makes a new draft of the cloner's with the information, design, consent and invitation text, and nothing of the participants or the review", async () => {
+    const studyId = await recruitingStudy(FOUR);
+    await saveInvitationText(db, owner, studyId, { text: "We invite you to aim at targets with your phone." }); // an amendment's working copy
+    const someone = await insertParticipant(db, studyId, "link");
+    await consent(someone.token);
+    const viewer = await user("priya@harbourview-lab.example");
+    // a researcher outside the team cannot copy someone's protocol; a viewer on the team can
+    expect(await status(cloneStudy(db, viewer, studyId))).toBe(403);
+    await db("study_members").insert({ study_id: studyId, user_id: viewer.id, role: "viewer" });
+    const { id } = await cloneStudy(db, viewer, studyId);
+    const [from, copy] = await Promise.all([db("studies").where({ id: studyId }).first(), db("studies").where({ id }).first()]);
+    expect(copy).toMatchObject({ status: "draft", owner_id: viewer.id, title: `${from.title} (copy)`, summary: from.summary, design_hash: from.design_hash, invitation_text: "We invite you to aim at targets with your phone." });
+    const consents = await db("consent_versions").where({ study_id: id }).select("version", "status", "body_md");
+    expect(consents).toEqual([{ version: 1, status: "draft", body_md: CONSENT }]);
+    for (const t of ["participants", "study_reviews", "study_documents"]) expect(await db(t).where({ study_id: id }).count<{ n: number }[]>({ n: "*" }), t).toEqual([{ n: 0 }]);
+  });
+});
+
+describe("withdrawal after completion", () => {
+  it("is still open through the participant's link: the completed participant is withdrawn and their place freed for the next", async () => {
+    const studyId = await recruitingStudy(FOUR);
+    const done = await insertParticipant(db, studyId, "link");
+    await consent(done.token);
+    await finish(done.token);
+    const placed = await db("participants").where({ id: done.id }).first<{ status: string; cb_slot: number }>();
+    expect(placed.status).toBe("completed");
+    await withdrawParticipant(db, await ctxOf(done.token), "changed my mind after the session");
+    expect(await db("participants").where({ id: done.id }).first()).toMatchObject({ status: "withdrawn", cb_release_reason: "withdrawn" });
+    // the next participant takes the place the withdrawn one held
+    const next = await insertParticipant(db, studyId, "link");
+    await consent(next.token);
+    await saveDeviceCheck(db, await ctxOf(next.token), OK_DEVICE);
+    await startTasks(db, await ctxOf(next.token));
+    expect((await db("participants").where({ id: next.id }).first<{ cb_slot: number }>()).cb_slot).toBe(placed.cb_slot);
   });
 });
 
