@@ -69,3 +69,67 @@ for (const v of variants) {
   const m = median(ms.get(v.name)!);
   console.log(`  ${v.name.padEnd(28)} ${(m / 1000).toFixed(2)} s (×${(m / base).toFixed(2)}); same JSON as the first: ${outputs.get(v.name) === outputs.get(variants[0]!.name)}`);
 }
+
+// Against a vectorised numpy script (experiments/bench/analysis_numpy.py, the same per-sequence
+// measures and cells) on the 1 M table: the two commands alternate in one run, so both see the same
+// machine load; each in a fresh process under GNU time (wall, CPU = user + sys, peak RSS). The
+// script runs without --json when timed (its JSON writer is a Python loop: timing it would favour
+// us); one extra run with --json checks that both give the same sequences and cells.
+const python = process.env.YAWPOINT_PYTHON ?? "python3";
+const numpyScript = "experiments/bench/analysis_numpy.py";
+const probe = spawnSync(python, ["-c", "import numpy; print(numpy.__version__)"], { encoding: "utf8" });
+if (probe.status !== 0) {
+  console.log(`\nnumpy comparison skipped: ${python} cannot import numpy (${probe.stderr.trim().split("\n").at(-1)})`);
+} else {
+  type Timed = { wall: number; cpu: number; rssMb: number };
+  const timed = (command: string, args: string[]): { t: Timed; stdout: string } => {
+    const r = spawnSync("/usr/bin/time", ["-f", "%e %M %U %S", command, ...args], { encoding: "utf8", maxBuffer: 1 << 30 });
+    if (r.status !== 0) throw new Error(`${command} ${args.join(" ")} failed: ${r.stderr}`);
+    const [wall, kb, user, sys] = r.stderr.trim().split("\n").at(-1)!.split(" ").map(Number);
+    return { t: { wall: wall!, cpu: user! + sys!, rssMb: kb! / 1024 }, stdout: r.stdout };
+  };
+  const cliArgs = ["--no-warnings", "experiments/cli/run.mjs", "analyze", big, "--json"];
+  const ours: Timed[] = [];
+  const theirs: Timed[] = [];
+  let cliJson = "";
+  for (let i = 0; i < runs; i++) {
+    const a = timed(process.execPath, cliArgs);
+    ours.push(a.t);
+    cliJson = a.stdout;
+    theirs.push(timed(python, [numpyScript, big]).t);
+  }
+  const outFile = `${dir}/numpy-output.json`;
+  timed(python, [numpyScript, big, "--json", outFile]);
+  const cli = JSON.parse(cliJson) as { excluded: number; sequences: Record<string, unknown>[]; cells: Record<string, unknown>[] };
+  const ref = JSON.parse(readFileSync(outFile, "utf8")) as typeof cli;
+  /** Largest relative difference over the keys the script writes; Infinity when the rows do not line up. */
+  const worst = (xs: Record<string, unknown>[], ys: Record<string, unknown>[]): number => {
+    if (xs.length !== ys.length) return Number.POSITIVE_INFINITY;
+    let w = 0;
+    const key = (r: Record<string, unknown>) => `${String(r.participant)}|${String(r.condition)}|${String(r.block ?? "")}|${String(r.sequence ?? "")}`;
+    const byKey = new Map(xs.map((r) => [key(r), r]));
+    for (const y of ys) {
+      const x = byKey.get(key(y));
+      if (x === undefined) return Number.POSITIVE_INFINITY;
+      for (const [k, v] of Object.entries(y)) {
+        if (typeof v !== "number") continue;
+        const u = x[k];
+        if (typeof u !== "number") return Number.POSITIVE_INFINITY;
+        w = Math.max(w, Math.abs(u - v) / Math.max(1, Math.abs(v)));
+      }
+    }
+    return w;
+  };
+  const med = (xs: Timed[], k: keyof Timed) => median(xs.map((x) => x[k]));
+  const line = (name: string, xs: Timed[]) =>
+    `  ${name.padEnd(34)} wall ${med(xs, "wall").toFixed(2).padStart(6)} s (runs ${xs.map((x) => x.wall.toFixed(2)).join(", ")})  CPU ${med(xs, "cpu").toFixed(2).padStart(6)} s  peak RSS ${med(xs, "rssMb").toFixed(0).padStart(4)} MB`;
+  console.log(`\nagainst numpy ${probe.stdout.trim()} (${python}), 1 M movements, ${runs} alternating runs each, medians (load average ${readFileSync("/proc/loadavg", "utf8").split(" ").slice(0, 3).join(" ")}):`);
+  console.log(line("npm run analyze -- FILE --json", ours));
+  console.log(line("analysis_numpy.py FILE", theirs));
+  const wallRatio = med(ours, "wall") / med(theirs, "wall");
+  const cpuRatio = med(ours, "cpu") / med(theirs, "cpu");
+  console.log(`  ratio analyze / numpy: wall ${wallRatio.toFixed(2)}×, CPU ${cpuRatio.toFixed(2)}× (target ≤ 0.4× wall: ${wallRatio <= 0.4 ? "met" : "NOT met"}); analyze's peak RSS ≤ 300 MB: ${med(ours, "rssMb") <= 300 ? "met" : "NOT met"}`);
+  console.log(
+    `  same output: misfires ${cli.excluded} vs ${ref.excluded}; sequences ${cli.sequences.length} vs ${ref.sequences.length} (largest relative difference ${worst(cli.sequences, ref.sequences).toExponential(1)}); cells ${cli.cells.length} vs ${ref.cells.length} (${worst(cli.cells, ref.cells).toExponential(1)})`,
+  );
+}
