@@ -54,6 +54,10 @@ const schemaFor = (isDev: boolean) => z.object({
   S3_SECRET_ACCESS_KEY: z.string().optional(),
   S3_FORCE_PATH_STYLE: z.enum(["true", "false"]).default("true").transform((v) => v === "true"),
   EXPORTS_DIR: z.string().default("./exports"),
+  /** How many export jobs run at once on this server, whatever the number of studies (lib/data/exportQueue.ts); the rest wait their turn. */
+  EXPORT_CONCURRENCY: z.coerce.number().int().min(1).max(16).default(2),
+  /** Days a finished archive's file is kept; then it is deleted and the listing says so (lib/data/exportQueue.ts). */
+  EXPORT_RETENTION_DAYS: z.coerce.number().int().min(1).max(3650).default(30),
 });
 
 export type Env = z.infer<ReturnType<typeof schemaFor>>;

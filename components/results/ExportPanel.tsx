@@ -6,8 +6,11 @@ import { fetchJson } from "./ResultsTypes";
 
 const sizeText = (n: number | null): string => (n === null ? "–" : n < 1024 * 1024 ? `${(n / 1024).toFixed(1)} KiB` : `${(n / 1024 / 1024).toFixed(1)} MiB`);
 
-/** Start an anonymised archive, watch its progress, list earlier ones with SHA-256 and size. */
-export function ExportPanel({ studyId }: { studyId: number }) {
+/**
+ * Start an anonymised archive (editors and owners; viewers see the list), watch its progress,
+ * list earlier ones with SHA-256, size and the day the file is deleted.
+ */
+export function ExportPanel({ studyId, canExport }: { studyId: number; canExport: boolean }) {
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState<string | null>(null);
   const [options, setOptions] = useState({ pseudonyms: "random" as "random" | "stable", includeStreams: false, includeDates: false, includeFreeText: false });
@@ -42,6 +45,7 @@ export function ExportPanel({ studyId }: { studyId: number }) {
         A ZIP with the movements, sequences, cells, conditions, participants and questionnaires as CSV, a data package description, a codebook,
         a generated methods section and the consent documents&apos; text. No e-mail, name, session link, IP address or participant code leaves in it.
       </p>
+      {canExport ? <>
       <fieldset className="space-y-1">
         <legend className="text-sm font-semibold">Pseudonyms</legend>
         <label className="flex items-center gap-2 font-normal"><input type="radio" name="pseudonyms" checked={options.pseudonyms === "random"} onChange={() => setOptions({ ...options, pseudonyms: "random" })} /> new random pseudonyms for this archive</label>
@@ -54,7 +58,9 @@ export function ExportPanel({ studyId }: { studyId: number }) {
         {check("includeFreeText", "free-text answers", "read them first: they may name people or places")}
       </fieldset>
       <button type="button" className="btn" onClick={start} disabled={busy}>Start export</button>
+      <p className="text-sm text-slate-700">Exports wait their turn on the server (one at a time per study). Archive files are deleted when their retention period ends; the list below keeps their SHA-256.</p>
       {error && <p className="field-error" role="alert">{error}</p>}
+      </> : <p className="text-sm">The study&apos;s editors and owners start exports; as a viewer you can see and download the archives below.</p>}
       {jobs.length > 0 && (
         <table>
           <caption className="caption-bottom pt-1 text-left text-sm text-slate-700">Archives of this study, newest first. Check a download with its SHA-256.</caption>
@@ -68,12 +74,12 @@ export function ExportPanel({ studyId }: { studyId: number }) {
                   {j.status === "running" || j.status === "queued" ? (
                     <span className="flex items-center gap-2">
                       <progress max={1} value={j.progress} aria-label={`export ${j.id} progress`} />
-                      <span>{Math.round(j.progress * 100)} % ({j.stage})</span>
+                      <span>{j.status === "queued" ? "waiting for its turn" : `${Math.round(j.progress * 100)} % (${j.stage})`}</span>
                     </span>
                   ) : j.status !== "done" ? <span className="text-red-800">failed: {j.error}</span>
                     : j.supersededAt ? <span>superseded on {new Date(j.supersededAt).toLocaleDateString()}: {j.supersededReason ?? "withdrawn"}; its file is deleted</span>
                     : j.fileDeletedAt ? <span>file deleted on {new Date(j.fileDeletedAt).toLocaleDateString()} (retention period over)</span>
-                    : "done"}
+                    : <span className="flex flex-col"><span>done</span>{j.deleteAfter && <span className="text-xs text-slate-700">file deleted on {new Date(j.deleteAfter).toLocaleDateString()} (retention period)</span>}</span>}
                 </td>
                 <td>{sizeText(j.sizeBytes)}</td>
                 <td><code className="break-all text-xs">{j.sha256 ?? "–"}</code></td>

@@ -27,7 +27,7 @@ function versionCounts(participants: ResultsView["participants"]): string {
 }
 
 /** The results page: fetched on the client and refreshed every 15 s while data arrive. */
-export function ResultsDashboard({ studyId }: { studyId: number }) {
+export function ResultsDashboard({ studyId, canExport = false }: { studyId: number; canExport?: boolean }) {
   const [choice, setChoice] = useState<ExclusionChoice>({ exclude: "misfire", drop: [] });
   const query = new URLSearchParams({ exclude: choice.exclude, drop: choice.drop.join(",") }).toString();
   const { data, error, isLoading } = useSWR(`/api/studies/${studyId}/results?${query}`, (u: string) => fetchJson<ResultsResponse>(u), { refreshInterval: 15_000, keepPreviousData: true });
@@ -120,7 +120,7 @@ export function ResultsDashboard({ studyId }: { studyId: number }) {
           </table>
         </section>
       )}
-      <ExportPanel studyId={studyId} />
+      <ExportPanel studyId={studyId} canExport={canExport} />
     </div>
   );
 }

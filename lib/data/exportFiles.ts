@@ -8,6 +8,13 @@ export function exportsRoot(): string {
   return isAbsolute(env.EXPORTS_DIR) ? env.EXPORTS_DIR : resolve(process.cwd(), env.EXPORTS_DIR);
 }
 
+export const DAY_MS = 24 * 60 * 60 * 1000;
+
+/** When a finished archive's file is deleted (retentionEnd): finished_at plus EXPORT_RETENTION_DAYS. */
+export function retentionEnd(finishedAt: Date, days = env.EXPORT_RETENTION_DAYS): Date {
+  return new Date(finishedAt.getTime() + days * DAY_MS);
+}
+
 /** The study's folder of archives, relative to exportsRoot(). */
 export const studyExportDir = (studyId: number): string => `study-${studyId}`;
 

@@ -4,7 +4,7 @@ import { join } from "node:path";
 import type { Knex } from "knex";
 import type { Queryable } from "@/lib/db";
 import { appendAudit } from "@/lib/data/audit";
-import { exportsRoot, studyExportDir } from "@/lib/data/exportFiles";
+import { exportsRoot, retentionEnd, studyExportDir } from "@/lib/data/exportFiles";
 import { listExclusions } from "@/lib/data/exclusions";
 import { pathEntries } from "@/lib/data/pathMeasures";
 import { fetchCalibrations, fetchStudyDesign, fetchStudyTrialRecords, TRIAL_RECORD_COLUMNS, whereInAnalysis, whereNotExcluded } from "@/lib/data/results";
@@ -17,6 +17,9 @@ import { openWithDataKey } from "@/lib/recruitment/dataKey";
 import type { ParticipantStatus, TrialRecord } from "@/lib/results";
 
 export type ExportStatus = "queued" | "running" | "done" | "failed";
+
+/** How often a running job's process says it is alive (ms; the queue fails a job silent for much longer). */
+export const HEARTBEAT_MS = 10_000;
 
 /** An export job as pages and the API see it (the file path stays on the server). */
 export type ExportJob = {
@@ -41,6 +44,8 @@ export type ExportJob = {
   supersededReason: string | null;
   /** Set when the file was deleted (superseded, or past the retention period). */
   fileDeletedAt: string | null;
+  /** When a finished archive's file will be deleted (the retention period ends); null once gone or while unfinished. */
+  deleteAfter: string | null;
 };
 
 type ExportRow = {
@@ -62,6 +67,7 @@ function toExportJob(r: ExportRow): ExportJob {
     createdAt: r.created_at.toISOString(), startedAt: iso(r.started_at), finishedAt: iso(r.finished_at),
     fileName: r.path && !r.superseded_at ? `study-${r.study_id}-export-${r.id}.zip` : null,
     supersededAt: iso(r.superseded_at), supersededReason: r.superseded_reason, fileDeletedAt: iso(r.file_deleted_at),
+    deleteAfter: r.status === "done" && r.path && !r.superseded_at && r.finished_at ? retentionEnd(r.finished_at).toISOString() : null,
   };
 }
 
@@ -79,13 +85,15 @@ export async function fetchExportJob(q: Queryable, id: number): Promise<ExportJo
 
 /**
  * The job's archive file on disk (absolute), or null while it is not done, once it is superseded
- * (a participant in it was erased) and once its file is deleted.
+ * (a participant in it was erased) and once its file is deleted or its retention period is over
+ * (even before the sweep has deleted it: fileDeleted then says so).
  */
-export async function fetchExportFile(q: Queryable, id: number): Promise<{ studyId: number; path: string | null; status: ExportStatus; superseded: boolean; fileDeleted: boolean } | undefined> {
-  const row = await q("exports").where({ id }).first<{ study_id: number; path: string | null; status: ExportStatus; superseded_at: Date | null; file_deleted_at: Date | null } | undefined>("study_id", "path", "status", "superseded_at", "file_deleted_at");
+export async function fetchExportFile(q: Queryable, id: number, now = new Date()): Promise<{ studyId: number; path: string | null; status: ExportStatus; superseded: boolean; fileDeleted: boolean } | undefined> {
+  const row = await q("exports").where({ id }).first<{ study_id: number; path: string | null; status: ExportStatus; superseded_at: Date | null; file_deleted_at: Date | null; finished_at: Date | null } | undefined>("study_id", "path", "status", "superseded_at", "file_deleted_at", "finished_at");
   if (!row) return undefined;
-  const offered = row.path !== null && row.status === "done" && row.superseded_at === null;
-  return { studyId: row.study_id, status: row.status, superseded: row.superseded_at !== null, fileDeleted: row.file_deleted_at !== null, path: offered ? join(exportsRoot(), row.path!) : null };
+  const expired = row.finished_at !== null && retentionEnd(row.finished_at).getTime() <= now.getTime();
+  const offered = row.path !== null && row.status === "done" && row.superseded_at === null && !expired;
+  return { studyId: row.study_id, status: row.status, superseded: row.superseded_at !== null, fileDeleted: row.file_deleted_at !== null || (expired && row.status === "done"), path: offered ? join(exportsRoot(), row.path!) : null };
 }
 
 export async function listExportJobs(q: Queryable, studyId: number): Promise<ExportJob[]> {
@@ -200,8 +208,12 @@ export async function databaseArchiveSource(db: Knex, studyId: number): Promise<
 export async function runExportJob(db: Knex, jobId: number, actor: { id: number; label: string }): Promise<void> {
   const job = await fetchExportJob(db, jobId);
   if (!job) return;
+  // a sign of life for the queue (lib/data/exportQueue.ts): a job that stops beating lost its process
+  const beat = setInterval(() => void db("exports").where({ id: jobId, status: "running" }).update({ heartbeat_at: new Date() }).catch(() => {}), HEARTBEAT_MS);
+  beat.unref();
   try {
-    await db("exports").where({ id: jobId }).update({ status: "running", started_at: new Date(), stage: "starting" });
+    const started = await db("exports").where({ id: jobId }).whereIn("status", ["queued", "running"]).update({ status: "running", started_at: new Date(), heartbeat_at: new Date(), stage: "starting" });
+    if (started !== 1) return; // given up before its process came up
     const source = await databaseArchiveSource(db, job.studyId);
     const ids = source.participants.map((p) => p.id);
     let pseudonyms: Map<number, string>;
@@ -227,6 +239,8 @@ export async function runExportJob(db: Knex, jobId: number, actor: { id: number;
       const still = ids.length ? await trx("participants").whereIn("id", ids).whereNull("erased_at").forShare().pluck("id") : [];
       if (still.length !== ids.length) throw new Error("a participant was erased while the archive was written; start a new export");
       for (let i = 0; i < ids.length; i += 1000) await trx("export_participants").insert(ids.slice(i, i + 1000).map((participant_id) => ({ export_id: jobId, participant_id })));
+      const mine = await trx("exports").where({ id: jobId, status: "running" }).forUpdate().first("id");
+      if (!mine) throw new Error("the job was given up while the archive was written (no sign of life in time); start a new export");
       await trx("exports").where({ id: jobId }).update({
         status: "done", progress: 1, stage: "done", path: relative, sha256: summary.sha256, size_bytes: summary.sizeBytes,
         k_anonymity: summary.kAnonymity.k, warnings: JSON.stringify(summary.warnings), finished_at: new Date(),
@@ -241,8 +255,10 @@ export async function runExportJob(db: Knex, jobId: number, actor: { id: number;
     });
   } catch (err) {
     console.error(`export ${jobId} failed`, err);
-    await db("exports").where({ id: jobId }).update({ status: "failed", stage: "failed", error: (err as Error).message.slice(0, 2000), finished_at: new Date() }).catch(() => {});
+    await db("exports").where({ id: jobId }).whereIn("status", ["queued", "running"]).update({ status: "failed", stage: "failed", error: (err as Error).message.slice(0, 2000), finished_at: new Date() }).catch(() => {});
     await appendAudit(db, { actorUserId: actor.id, actorLabel: actor.label, action: "export.fail", studyId: job.studyId, details: { exportId: jobId } }).catch(() => {});
+  } finally {
+    clearInterval(beat);
   }
 }
 

@@ -1,5 +1,7 @@
 import { db } from "@/lib/db";
 import { publishAuditHead } from "@/lib/data/auditHeads";
+import { startExportProcess } from "@/lib/data/exportProcess";
+import { dispatchExports, sweepExpiredExports } from "@/lib/data/exportQueue";
 
 /** How often the server's housekeeping runs (each job is idempotent, and cheap when it has nothing to do). */
 export const PERIODIC_INTERVAL_MS = 60 * 60 * 1000;
@@ -7,6 +9,8 @@ export const PERIODIC_INTERVAL_MS = 60 * 60 * 1000;
 /** Housekeeping jobs, each run in turn; a failing job is logged and the others still run. */
 const JOBS: { name: string; run: () => Promise<unknown> }[] = [
   { name: "publish the audit head", run: () => publishAuditHead(db) },
+  { name: "delete archives past their retention period", run: () => sweepExpiredExports(db) },
+  { name: "start waiting exports (and fail those whose process died)", run: () => dispatchExports(db, startExportProcess) },
 ];
 
 let started = false;

@@ -11,9 +11,9 @@ export const metadata = { title: "Results" };
 export default async function ResultsPage({ params }: { params: Promise<{ id: string }> }) {
   const id = Number((await params).id);
   if (!Number.isInteger(id) || id <= 0) notFound();
-  let study;
+  let study, teamRole;
   try {
-    ({ study } = await assertStudyTeam(db, await getCurrentUser(), id));
+    ({ study, teamRole } = await assertStudyTeam(db, await getCurrentUser(), id));
   } catch (e) {
     if (e instanceof AppError && (e.status === 404 || e.status === 403)) notFound();
     throw e;
@@ -22,7 +22,7 @@ export default async function ResultsPage({ params }: { params: Promise<{ id: st
     <article className="space-y-4">
       <p className="text-sm print:hidden"><Link href={`/studies/${id}`}>← {study.title}</Link></p>
       <h1>Results: {study.title}</h1>
-      <ResultsDashboard studyId={id} />
+      <ResultsDashboard studyId={id} canExport={teamRole !== "viewer"} />
     </article>
   );
 }
