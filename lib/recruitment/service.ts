@@ -88,19 +88,27 @@ export async function changeRecruitment(db: Knex, user: SessionUser | null, stud
     update.public_token_hash = null;
     update.public_token_encrypted = null;
   }
-  if (v.action === "open") {
-    if (study.status !== "approved") throw conflict(`Recruitment opens only for an approved study; this one is ${study.status.replace("_", " ")}.`);
-    const blocker = await recruitmentBlocker(db, studyId);
-    if (blocker) throw conflict(blocker);
-    update.status = "recruiting";
-  } else if (v.action === "close") {
-    if (study.status !== "recruiting") throw conflict("Recruitment is not open.");
-    update.status = "closed";
-  }
-  await db("studies").where({ id: studyId }).update(update);
-  await auditAs(db, user!, `recruitment.${v.action}`, studyId, {
-    participantCap: v.participantCap, publicLink: v.publicLink, inactivityMinutes: v.inactivityMinutes, panelParam: v.panelParam,
-    returnAddresses: v.returnUrlComplete !== undefined || v.returnUrlScreened !== undefined ? "changed" : undefined,
+  // The status is read again under the study's row lock and written only from the status it was
+  // read in, with the approved version checked inside the lock: of any number of parallel
+  // requests one opens (or closes), and never a study whose approval is not in force.
+  await db.transaction(async (trx) => {
+    const locked = await trx("studies").where({ id: studyId }).forUpdate().first<{ status: string }>("status");
+    const status = locked?.status ?? study.status;
+    if (v.action === "open") {
+      if (status !== "approved") throw conflict(`Recruitment opens only for an approved study; this one is ${status.replace("_", " ")}.`);
+      const blocker = await recruitmentBlocker(trx, studyId);
+      if (blocker) throw conflict(blocker);
+      update.status = "recruiting";
+    } else if (v.action === "close") {
+      if (status !== "recruiting") throw conflict("Recruitment is not open.");
+      update.status = "closed";
+    }
+    const n = await trx("studies").where({ id: studyId, status }).update(update);
+    if (n !== 1) throw conflict("The study changed meanwhile; reload and try again.");
+    await auditAs(trx, user!, `recruitment.${v.action}`, studyId, {
+      participantCap: v.participantCap, publicLink: v.publicLink, inactivityMinutes: v.inactivityMinutes, panelParam: v.panelParam,
+      returnAddresses: v.returnUrlComplete !== undefined || v.returnUrlScreened !== undefined ? "changed" : undefined,
+    });
   });
   return recruitmentState(db, studyId);
 }

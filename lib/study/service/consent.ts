@@ -1,6 +1,7 @@
 import type { Knex } from "knex";
 import type { Queryable } from "@/lib/db";
 import { assertCanEditStudy, type SessionUser } from "@/lib/auth/guards";
+import type { Study } from "@/lib/data/studies";
 import { consentBodySchema } from "@/lib/consent/schema";
 import { conflict } from "@/lib/errors";
 import { auditAs } from "./audit";
@@ -51,32 +52,39 @@ export async function latestApprovedConsent(q: Queryable, studyId: number): Prom
  * @throws 401/403/404, 409 while in review or closed (editLock), ZodError (422) for an empty text.
  */
 export async function saveConsentDraft(db: Knex, user: SessionUser | null, studyId: number, input: unknown): Promise<ConsentVersion> {
-  const { study } = await assertCanEditStudy(db, user, studyId);
-  const lock = await editLock(db, study, "consent text");
-  if (lock) throw conflict(lock);
+  await assertCanEditStudy(db, user, studyId);
   const { body, erasureWindowDays } = consentBodySchema.parse(input);
-  const latest = await db<ConsentVersionRow>("consent_versions").where({ study_id: studyId }).orderBy("version", "desc").first();
-  let id: number;
-  const current = await db("studies").where({ id: studyId }).first<{ erasure_window_days: number | null }>("erasure_window_days");
-  const windowChanged = erasureWindowDays !== undefined && erasureWindowDays !== (current?.erasure_window_days ?? null);
-  if (windowChanged) await db("studies").where({ id: studyId }).update({ erasure_window_days: erasureWindowDays });
-  if (latest && latest.status === "draft") {
-    await db("consent_versions").where({ id: latest.id }).update({ body_md: body });
-    id = latest.id;
-  } else {
-    if (latest && latest.body_md === body) {
-      if (windowChanged) {
-        await auditAs(db, user!, "consent.erasure_window", studyId, { erasureWindowDays });
-        return toVersion(latest);
+  // Under the study's row lock (which submitForReview takes too), the status is read again and
+  // only an open draft is written: a text saved while a submission freezes it cannot slip in.
+  return db.transaction(async (trx) => {
+    const study = await trx("studies").where({ id: studyId }).forUpdate().first<{ id: number; status: Study["status"]; erasure_window_days: number | null }>("id", "status", "erasure_window_days");
+    const lock = await editLock(trx, study!, "consent text");
+    if (lock) throw conflict(lock);
+    // (no lock of its own: the study row lock serialises every writer of the study's consent versions, and a
+    // locking read of a study without versions would lock a gap that other studies insert into)
+    const latest = await trx<ConsentVersionRow>("consent_versions").where({ study_id: studyId }).orderBy("version", "desc").first();
+    let id: number;
+    const windowChanged = erasureWindowDays !== undefined && erasureWindowDays !== (study!.erasure_window_days ?? null);
+    if (windowChanged) await trx("studies").where({ id: studyId }).update({ erasure_window_days: erasureWindowDays });
+    if (latest && latest.status === "draft") {
+      const n = await trx("consent_versions").where({ id: latest.id, status: "draft" }).update({ body_md: body });
+      if (n !== 1) throw conflict("The consent text was submitted meanwhile; reload to see its state.");
+      id = latest.id;
+    } else {
+      if (latest && latest.body_md === body) {
+        if (windowChanged) {
+          await auditAs(trx, user!, "consent.erasure_window", studyId, { erasureWindowDays });
+          return toVersion(latest);
+        }
+        throw conflict(`The text is the same as version ${latest.version}.`);
       }
-      throw conflict(`The text is the same as version ${latest.version}.`);
+      const [newId] = await trx("consent_versions").insert({ study_id: studyId, version: (latest?.version ?? 0) + 1, body_md: body, status: "draft", created_by: user!.id });
+      id = Number(newId);
     }
-    const [newId] = await db("consent_versions").insert({ study_id: studyId, version: (latest?.version ?? 0) + 1, body_md: body, status: "draft", created_by: user!.id });
-    id = Number(newId);
-  }
-  await db("studies").where({ id: studyId }).update({ updated_at: db.fn.now(3) });
-  const saved = toVersion((await db<ConsentVersionRow>("consent_versions").where({ id }).first())!);
-  const inForce = await fetchInForceVersion(db, studyId);
-  await auditAs(db, user!, "consent.save", studyId, { version: saved.version, characters: body.length, ...(windowChanged ? { erasureWindowDays } : {}), ...(inForce ? { amendsVersion: inForce.version } : {}) });
-  return saved;
+    await trx("studies").where({ id: studyId }).update({ updated_at: trx.fn.now(3) });
+    const saved = toVersion((await trx<ConsentVersionRow>("consent_versions").where({ id }).first())!);
+    const inForce = await fetchInForceVersion(trx, studyId);
+    await auditAs(trx, user!, "consent.save", studyId, { version: saved.version, characters: body.length, ...(windowChanged ? { erasureWindowDays } : {}), ...(inForce ? { amendsVersion: inForce.version } : {}) });
+    return saved;
+  });
 }

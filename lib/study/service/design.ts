@@ -34,7 +34,13 @@ export async function saveDesign(db: Knex, user: SessionUser | null, studyId: nu
   const inForce = await fetchInForceVersion(db, studyId);
   const amendment = inForce !== null && inForce.designHash !== hash;
   if (current.designHash === hash) return { designHash: hash, amendment, backToDraft: false };
-  await db("studies").where({ id: studyId }).update({ design: JSON.stringify(design), design_hash: hash, updated_at: db.fn.now(3) });
-  await auditAs(db, user!, "study.design", studyId, { designHash: hash, previousHash: current.designHash, ...(inForce ? { amendsVersion: inForce.version } : {}) });
+  await db.transaction(async (trx) => {
+    // read again under the study's row lock (submitForReview takes it too): no design slips in after a submission froze it
+    const locked = await trx("studies").where({ id: studyId }).forUpdate().first<{ id: number; status: typeof study.status }>("id", "status");
+    const again = await editLock(trx, locked!, "design");
+    if (again) throw conflict(again);
+    await trx("studies").where({ id: studyId }).update({ design: JSON.stringify(design), design_hash: hash, updated_at: trx.fn.now(3) });
+    await auditAs(trx, user!, "study.design", studyId, { designHash: hash, previousHash: current.designHash, ...(inForce ? { amendsVersion: inForce.version } : {}) });
+  });
   return { designHash: hash, amendment, backToDraft: false };
 }

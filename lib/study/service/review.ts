@@ -72,23 +72,35 @@ export async function submitForReview(db: Knex, user: SessionUser | null, studyI
   if (amendment && inForce && protocolChanges(inForce, working).length === 0) throw conflict(`Nothing changed since the approved version ${inForce.version}: there is nothing to review.`);
   const keepsConsent = amendment && consent.status === "approved";
   if (consent.status !== "draft" && !keepsConsent) throw conflict(`Consent version ${consent.version} was already ${consent.status}: change the text to start a new version.`);
-  const hash = keepsConsent ? consent.sha256! : sha256Text(consent.body_md);
-  const { reviewId, version } = await db.transaction(async (trx) => {
+  const { reviewId, version, hash } = await db.transaction(async (trx) => {
+    // the study's row lock (saveConsentDraft takes it too) and a conditional status change
     if (!amendment) {
       const n = await trx("studies").where({ id: studyId, status: "draft" }).update({ status: "in_review", updated_at: trx.fn.now(3) });
       if (n !== 1) throw conflict("The study changed meanwhile; reload and try again.");
     } else {
-      await trx("studies").where({ id: studyId }).forUpdate().first("id");
+      const n = await trx("studies").where({ id: studyId, status: study.status }).forUpdate().first("id");
+      if (!n) throw conflict("The study changed meanwhile; reload and try again.");
       if (await trx("study_reviews").where({ study_id: studyId, status: "submitted" }).first("id")) throw conflict("A submission is already waiting for a decision.");
     }
-    if (!keepsConsent) await trx("consent_versions").where({ id: consent.id, status: "draft" }).update({ status: "submitted", sha256: hash, submitted_at: trx.fn.now(3) });
+    // the design snapshot is the one stored now (a save may have come after it was read)
+    const stored = await trx("studies").where({ id: studyId }).first<{ design_hash: string | null }>("design_hash");
+    if (stored?.design_hash !== working.designHash) throw conflict("The design changed meanwhile; reload and submit again.");
+    // the fingerprint is taken of the text as stored at the moment it is frozen, under its row lock
+    const locked = await trx<ConsentVersionRow>("consent_versions").where({ id: consent.id }).forUpdate().first();
+    const newest = await trx("consent_versions").where({ study_id: studyId }).max<{ v: number }[]>({ v: "version" });
+    if (!locked || locked.status !== consent.status || Number(newest[0]?.v) !== consent.version) throw conflict("The consent text changed meanwhile; reload and submit again.");
+    const hash = keepsConsent ? locked.sha256! : sha256Text(locked.body_md);
+    if (!keepsConsent) {
+      const n = await trx("consent_versions").where({ id: consent.id, status: "draft" }).update({ status: "submitted", sha256: hash, submitted_at: trx.fn.now(3) });
+      if (n !== 1) throw conflict("The consent text changed meanwhile; reload and submit again.");
+    }
     const last = await trx("study_reviews").where({ study_id: studyId }).max<{ v: number | null }[]>({ v: "version" });
     const version = Number(last[0]?.v ?? 0) + 1;
     const [id] = await trx("study_reviews").insert({
       study_id: studyId, consent_version_id: consent.id, design_hash: working.designHash, submitted_by: user!.id, version,
       title: working.title, summary: working.summary, design: JSON.stringify(working.design), invitation_text: working.invitationText, erasure_window_days: working.erasureWindowDays,
     });
-    return { reviewId: Number(id), version };
+    return { reviewId: Number(id), version, hash };
   });
   await auditAs(db, user!, "review.submit", studyId, { reviewId, protocolVersion: version, consentVersion: consent.version, consentSha256: hash, designHash: working.designHash, ...(inForce ? { amendsVersion: inForce.version } : {}) });
   return (await listReviews(db, studyId)).find((r) => r.id === reviewId)!;
@@ -116,7 +128,10 @@ export async function decideReview(db: Knex, user: SessionUser | null, studyId: 
     if (n !== 1) throw conflict("Someone decided on this submission meanwhile.");
     // an amendment may keep the consent version in force: only a submitted one takes the decision
     await trx("consent_versions").where({ id: open.consent_version_id, status: "submitted" }).update({ status: approved ? "approved" : "returned", decided_by: reviewer.id, decided_at: trx.fn.now(3), decision_comment: v.comment || null });
-    if (study.status === "in_review") await trx("studies").where({ id: studyId }).update({ status: approved ? "approved" : "draft", updated_at: trx.fn.now(3) });
+    if (study.status === "in_review") {
+      const m = await trx("studies").where({ id: studyId, status: "in_review" }).update({ status: approved ? "approved" : "draft", updated_at: trx.fn.now(3) });
+      if (m !== 1) throw conflict("The study changed meanwhile; reload and decide again.");
+    }
     else await trx("studies").where({ id: studyId }).update({ updated_at: trx.fn.now(3) });
   });
   await auditAs(db, reviewer, approved ? "review.approve" : "review.return", studyId, { reviewId: open.id, protocolVersion: open.version, consentVersionId: open.consent_version_id, designHash: open.design_hash, comment: v.comment });
