@@ -12,18 +12,27 @@ import type { RegressionRow, SequenceSummary } from "./result";
  * @example fittsRegression(result.sequences, ["motion-4"], "ide")[0] // {condition: "motion-4", intercept: 244.8…, slope: 124.7…, r2: 1, points: 2, note: null}
  */
 export function fittsRegression(sequences: readonly SequenceSummary[], conditions: readonly string[], x: "ide" | "id"): RegressionRow[] {
-  return conditions.map((condition) => {
-    const points = new Map<string, { x: number; mt: number; n: number }>();
-    for (const s of sequences) {
-      if (s.condition !== condition) continue;
-      const key = `${s.amplitude}\u0000${s.width}`;
-      const p = points.get(key) ?? { x: 0, mt: 0, n: 0 };
-      p.x += s[x];
-      p.mt += s.mt;
-      p.n++;
-      points.set(key, p);
+  // One pass over the sequences: per condition, the A×W points in order of first appearance (the
+  // order the sums and the line are computed in), found through amplitude → width maps.
+  type Point = { x: number; mt: number; n: number };
+  const byCondition = new Map<string, { points: Point[]; index: Map<number, Map<number, Point>> }>(conditions.map((c) => [c, { points: [], index: new Map() }]));
+  for (const s of sequences) {
+    const c = byCondition.get(s.condition);
+    if (c === undefined) continue;
+    let widths = c.index.get(s.amplitude);
+    if (widths === undefined) c.index.set(s.amplitude, (widths = new Map()));
+    let p = widths.get(s.width);
+    if (p === undefined) {
+      p = { x: 0, mt: 0, n: 0 };
+      widths.set(s.width, p);
+      c.points.push(p);
     }
-    const ps = [...points.values()];
+    p.x += s[x];
+    p.mt += s.mt;
+    p.n++;
+  }
+  return conditions.map((condition) => {
+    const ps = byCondition.get(condition)!.points;
     const line = leastSquaresLine(ps.map((p) => p.x / p.n), ps.map((p) => p.mt / p.n));
     return { condition, intercept: line.intercept, slope: line.slope, r2: line.r2, points: ps.length, note: line.note };
   });

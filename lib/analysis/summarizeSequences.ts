@@ -18,6 +18,36 @@ export function compareSequences(
   return collator.compare(a.participant, b.participant) || collator.compare(a.condition, b.condition) || a.block - b.block || a.sequence - b.sequence;
 }
 
+/**
+ * Ranks of codes in the collator's order, equal ranks for codes it holds equal (codeRanks), so that
+ * comparing ranks orders exactly as comparing the codes does.
+ * Cost: O(d log d) collator comparisons for d distinct codes.
+ */
+function codeRanks(codes: Iterable<string>): Map<string, number> {
+  const sorted = [...new Set(codes)].sort(collator.compare);
+  const ranks = new Map<string, number>();
+  let rank = 0;
+  sorted.forEach((code, i) => {
+    if (i > 0 && collator.compare(sorted[i - 1]!, code) !== 0) rank++;
+    ranks.set(code, rank);
+  });
+  return ranks;
+}
+
+/**
+ * The indices of `infos` in compareSequences' order (sequenceOrder), comparing ranks of the
+ * participant and condition codes instead of the codes: the same order, without a collator call per
+ * comparison (about 0.4 s on 77 k sequences, measured with bench:analysis's profile).
+ * Cost: O(s log s).
+ */
+export function sequenceOrder(infos: readonly { participant: string; condition: string; block: number; sequence: number }[]): number[] {
+  const p = codeRanks(infos.map((i) => i.participant));
+  const c = codeRanks(infos.map((i) => i.condition));
+  const pr = Int32Array.from(infos, (i) => p.get(i.participant)!);
+  const cr = Int32Array.from(infos, (i) => c.get(i.condition)!);
+  return [...infos.keys()].sort((a, b) => pr[a]! - pr[b]! || cr[a]! - cr[b]! || infos[a]!.block - infos[b]!.block || infos[a]!.sequence - infos[b]!.sequence);
+}
+
 export interface SequenceSummaries {
   sequences: SequenceSummary[];
   /** Sequences left out of every summary, with the reason (the one rule: see buildResult). */
@@ -77,7 +107,7 @@ export function summarizeSequences(
   }
   const paths = pathMeasures ? aggregatePaths(store, infos, keep, pathMeasures) : undefined;
 
-  const order = [...infos.keys()].sort((a, b) => compareSequences(infos[a]!, infos[b]!));
+  const order = sequenceOrder(infos);
   const sequences: SequenceSummary[] = [];
   const dropped: SequenceSummaries["dropped"] = [];
   for (const q of order) {

@@ -1,7 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it, vi } from "vitest";
 
-import { decimalValue } from "./decimalValue";
+import { decimalRange, decimalValue } from "./decimalValue";
 
 // Property tests over many random inputs: allow for a busy machine.
 vi.setConfig({ testTimeout: 30_000 });
@@ -45,5 +45,20 @@ describe("decimalValue", () => {
     expect(decimalValue(" 5")).toBe(5);
     expect(decimalValue("5.")).toBe(5);
     expect(decimalValue("0.1")).toBe(0.1);
+  });
+});
+
+describe("decimalRange", () => {
+  it("reads a field inside a line exactly as Number() reads the field's text", () => {
+    const chars = fc.constantFrom(..."0123456789.-+e ".split(""), "0", "5", "é", "x");
+    fc.assert(
+      fc.property(fc.array(chars, { maxLength: 40 }), fc.array(chars, { maxLength: 5 }), (cs, around) => {
+        const s = cs.join("");
+        const pad = around.join("");
+        const line = `${pad},${s},${pad}`;
+        expect(Object.is(decimalRange(line, pad.length + 1, pad.length + 1 + s.length), Number(s))).toBe(true);
+      }),
+      { numRuns: 20000 },
+    );
   });
 });

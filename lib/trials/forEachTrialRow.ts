@@ -1,6 +1,7 @@
 import type { Readable } from "node:stream";
 import { CsvError, parse } from "csv-parse";
 import { PlainCsvSplitter } from "./plainCsvSplitter";
+import { emptyRecord, recordFromStrings, recordStrings, type RecordFields } from "./recordFields";
 import { makeRowReader } from "./rowReader";
 import type { LegacyTrialRow, Located, TrialRow } from "./trialRow";
 import { TrialTableError } from "./trialTableError";
@@ -68,7 +69,7 @@ export function forEachTrialRow(
   const emit = onRow as (r: Located<TrialRow> | Located<LegacyTrialRow>) => void;
   return new Promise((resolve, reject) => {
     let header: readonly string[] | undefined = options.header;
-    let reader: ((fields: readonly string[], line: number) => Located<TrialRow> | Located<LegacyTrialRow>) | undefined;
+    let reader: ((fields: RecordFields, line: number) => Located<TrialRow> | Located<LegacyTrialRow>) | undefined;
     let rows = 0;
     let failed = false;
     let parser: ReturnType<typeof parse> | undefined;
@@ -90,10 +91,10 @@ export function forEachTrialRow(
       return;
     }
     /** One record (either reader), line without offset; throws TrialTableError. */
-    const record = (fields: string[], line: number) => {
+    const record = (fields: RecordFields, line: number) => {
       if (!reader) {
-        header = fields;
-        reader = build(fields);
+        header = recordStrings(fields);
+        reader = build(header);
         return;
       }
       const row = reader(fields, line + offset);
@@ -122,6 +123,7 @@ export function forEachTrialRow(
       const p = parse({ bom: true, skip_empty_lines: true, columns: false });
       parser = p;
       let skip = prefix?.skipFirstRecord === true;
+      const scratch = emptyRecord();
       p.on("data", (fields: string[]) => {
         if (failed) return;
         if (skip) {
@@ -129,7 +131,7 @@ export function forEachTrialRow(
           return;
         }
         try {
-          record(fields, p.info.lines);
+          record(recordFromStrings(fields, scratch), p.info.lines);
         } catch (err) {
           fail(err);
         }
@@ -149,7 +151,7 @@ export function forEachTrialRow(
     const splitter = new PlainCsvSplitter((fields, line) => {
       const expected = splitter.firstRecordLength;
       // csv-parse compares every record with the first one (the header, or a slice's first row).
-      if (expected !== undefined && fields.length !== expected) throw fieldCountError(file, line + offset, fields.length, header);
+      if (expected !== undefined && fields.count !== expected) throw fieldCountError(file, line + offset, fields.count, header);
       record(fields, line);
     });
     const handOver = (rest: Buffer, ended: boolean) => {

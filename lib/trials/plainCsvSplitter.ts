@@ -1,8 +1,11 @@
+import { emptyRecord, ensureCapacity, type RecordFields } from "./recordFields";
+
 /**
- * Called for each record the splitter finds: the fields and the 1-based line the record is on
+ * Called for each record the splitter finds: the fields (ranges of the chunk's text, in a
+ * RecordFields the splitter reuses for the next record) and the 1-based line the record is on
  * (csv-parse's `info.lines` at that record).
  */
-export type PlainRecordHandler = (fields: string[], line: number) => void;
+export type PlainRecordHandler = (fields: RecordFields, line: number) => void;
 
 const QUOTE = 34;
 const CR = 13;
@@ -27,7 +30,7 @@ const LF = 10;
  * Cost: O(bytes); memory O(longest line).
  * @throws whatever `onRecord` throws (the field-count check is the caller's, as with csv-parse).
  * @example
- * const s = new PlainCsvSplitter((f, line) => console.log(line, f));
+ * const s = new PlainCsvSplitter((f, line) => console.log(line, recordStrings(f)));
  * s.push(Buffer.from("a,b\r\n\r\n1,2\r\n")); s.end() // logs 1 ["a","b"], 3 ["1","2"]; returns null
  */
 export class PlainCsvSplitter {
@@ -40,6 +43,7 @@ export class PlainCsvSplitter {
   private leftover: Buffer | undefined;
   private started = false;
   private readonly onRecord: PlainRecordHandler;
+  private readonly record: RecordFields = emptyRecord();
 
   constructor(onRecord: PlainRecordHandler) {
     this.onRecord = onRecord;
@@ -165,9 +169,27 @@ export class PlainCsvSplitter {
       }
       if (quote !== -1 && quote < nl) return this.byteOffset(data, consumed);
       if (stop > pos) {
-        const fields = text.slice(pos, stop).split(",");
-        if (this.firstRecordLength === undefined) this.firstRecordLength = fields.length;
-        this.onRecord(fields, this.lines);
+        // The fields as ranges of `text` (what text.slice(pos, stop).split(",") would give).
+        const r = this.record;
+        r.text = text;
+        let count = 0;
+        let from = pos;
+        for (;;) {
+          let comma = text.indexOf(",", from);
+          if (comma === -1 || comma > stop) comma = stop;
+          if (count === r.start.length) {
+            r.count = count;
+            ensureCapacity(r, count + 1);
+          }
+          r.start[count] = from;
+          r.end[count] = comma;
+          count++;
+          if (comma === stop) break;
+          from = comma + 1;
+        }
+        r.count = count;
+        if (this.firstRecordLength === undefined) this.firstRecordLength = count;
+        this.onRecord(r, this.lines);
       }
       if (last) break;
       this.lines++;

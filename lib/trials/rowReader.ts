@@ -1,20 +1,23 @@
 import { BETWEEN_PREFIX, COORDINATE_COLUMNS, FACTOR_PREFIX, FLAG_COLUMNS, INTEGER_COLUMNS, LEGACY_TRIAL_COLUMNS, TRIAL_COLUMNS } from "./columns";
 import type { LegacyTrialRow, Located, TrialRow } from "./trialRow";
-import { decimalValue } from "./decimalValue";
+import { decimalRange } from "./decimalValue";
+import { fieldEquals, fieldText, type RecordFields } from "./recordFields";
 import { TrialTableError } from "./trialTableError";
 
 /** Distinct factor-level combinations remembered per reader (a table has a few dozen). */
 const FACTOR_CACHE_LIMIT = 4096;
 
-/** Converts one CSV record (array of fields) to a row, or throws TrialTableError. */
-export type RowReader<R> = (fields: readonly string[], line: number) => Located<R>;
+/** Converts one CSV record (its fields as ranges of a text) to a row, or throws TrialTableError. */
+export type RowReader<R> = (fields: RecordFields, line: number) => Located<R>;
 
 /**
  * Builds the record → row converter for a header: checks the required columns once, then converts
  * each record by column index. The checks are the same as trialRowSchema's (zod) but written out,
  * since running zod per row costs about 0.9 s per million rows on the project machine (measured),
  * a third of the analysis budget; a property test checks both agree. Numbers go through
- * decimalValue (same doubles as Number()); rows with the same raw factor fields share one frozen
+ * decimalRange in the line's text, without a string per field (same doubles as Number()); the
+ * participant and condition codes are strings shared with the previous row when they repeat; rows
+ * with the same raw factor fields share one frozen
  * `factors` object, and likewise `groups` (the b_NAME between-factor levels, only with b_ columns).
  * The optional flag columns timed_out, recentered and clutched (0/1) become booleans when all three are present.
  *
@@ -62,52 +65,69 @@ export function makeRowReader(header: readonly string[], file: string, legacy: b
     const cache = new Map<string, Record<string, string>>();
     const lastFields: string[] = columns.map(() => "");
     let last: Readonly<Record<string, string>> | undefined;
-    return (fields: readonly string[], line: number): Readonly<Record<string, string>> => {
+    return (fields: RecordFields, line: number): Readonly<Record<string, string>> => {
       let same = last !== undefined;
-      for (let k = 0; same && k < columns.length; k++) same = fields[columns[k]!.i] === lastFields[k];
+      for (let k = 0; same && k < columns.length; k++) same = fieldEquals(fields, columns[k]!.i, lastFields[k]!);
       if (same) return last!;
       let key = "";
-      for (let k = 0; k < columns.length; k++) key += fields[columns[k]!.i]! + "\u0000";
+      for (let k = 0; k < columns.length; k++) key += fieldText(fields, columns[k]!.i) + "\u0000";
       let cached = cache.get(key);
       if (cached === undefined) {
         const built: Record<string, string> = {};
         for (const f of columns) {
-          const v = fields[f.i]!;
+          const v = fieldText(fields, f.i);
           if (v.length === 0) fail(line, f.i, empty);
           built[f.factor] = v;
         }
         cached = Object.freeze(built);
         if (cache.size < FACTOR_CACHE_LIMIT) cache.set(key, cached);
       }
-      for (let k = 0; k < columns.length; k++) lastFields[k] = fields[columns[k]!.i]!;
+      for (let k = 0; k < columns.length; k++) lastFields[k] = fieldText(fields, columns[k]!.i);
       last = cached;
       return cached;
     };
   };
   const readFactors = levelReader(factorColumns, "empty text, expected a code");
   const readGroups = betweenColumns.length > 0 ? levelReader(betweenColumns, "empty: the participant is in no group of this between factor") : undefined;
-  const flag = (fields: readonly string[], line: number, i: number): boolean | undefined => {
+  /** The field's text trimmed, as "0" or "1" without making a string when it is one character. */
+  const bit = (fields: RecordFields, i: number): string => {
+    const a = fields.start[i]!;
+    if (fields.end[i]! - a === 1) {
+      const c = fields.text.charCodeAt(a);
+      if (c === 48) return "0";
+      if (c === 49) return "1";
+    }
+    return fieldText(fields, i).trim();
+  };
+  const flag = (fields: RecordFields, line: number, i: number): boolean | undefined => {
     if (i < 0) return undefined;
-    const t = fields[i]!.trim();
+    const t = bit(fields, i);
     if (t === "1") return true;
     if (t === "0") return false;
-    return fail(line, i, `must be 0 or 1, got "${fields[i]}"`);
+    return fail(line, i, `must be 0 or 1, got "${fieldText(fields, i)}"`);
   };
 
-  const text = (fields: readonly string[], line: number, i: number): string => {
-    const v = fields[i]!;
-    if (v.length === 0) fail(line, i, "empty text, expected a code");
+  /** A code column: the previous row's string when the field repeats it. */
+  const codeReader = () => {
+    let last = "";
+    return (fields: RecordFields, line: number, i: number): string => {
+      if (last.length > 0 && fieldEquals(fields, i, last)) return last;
+      const v = fieldText(fields, i);
+      if (v.length === 0) fail(line, i, "empty text, expected a code");
+      last = v;
+      return v;
+    };
+  };
+  const participantCode = codeReader();
+  const conditionCode = codeReader();
+  const num = (fields: RecordFields, line: number, i: number): number => {
+    const v = decimalRange(fields.text, fields.start[i]!, fields.end[i]!);
+    if (!Number.isFinite(v) || (v === 0 && fieldText(fields, i).trim().length === 0)) fail(line, i, `not a number: "${fieldText(fields, i)}"`);
     return v;
   };
-  const num = (fields: readonly string[], line: number, i: number): number => {
-    const s = fields[i]!;
-    const v = decimalValue(s);
-    if (!Number.isFinite(v) || (v === 0 && s.trim().length === 0)) fail(line, i, `not a number: "${s}"`);
-    return v;
-  };
-  const int = (fields: readonly string[], line: number, i: number): number => {
+  const int = (fields: RecordFields, line: number, i: number): number => {
     const v = num(fields, line, i);
-    if (!Number.isInteger(v)) fail(line, i, `not an integer: "${fields[i]}"`);
+    if (!Number.isInteger(v)) fail(line, i, `not an integer: "${fieldText(fields, i)}"`);
     return v;
   };
 
@@ -118,8 +138,8 @@ export function makeRowReader(header: readonly string[], file: string, legacy: b
     if (!(width > 0)) fail(line, iWidth, `width must be > 0, got ${width}`);
     const timeMs = num(fields, line, iTime);
     if (timeMs < 0) fail(line, iTime, `time_ms must be ≥ 0, got ${timeMs}`);
-    const hitText = fields[iHit]!.trim();
-    if (hitText !== "0" && hitText !== "1") fail(line, iHit, `hit must be 0 or 1, got "${fields[iHit]}"`);
+    const hitText = bit(fields, iHit);
+    if (hitText !== "0" && hitText !== "1") fail(line, iHit, `hit must be 0 or 1, got "${fieldText(fields, iHit)}"`);
     const trial = int(fields, line, integers[2]!);
     if (trial < 1) fail(line, integers[2]!, `trial must be ≥ 1, got ${trial}`);
     // Rows of a sequence repeat their factor levels: one frozen object per distinct raw text.
@@ -128,8 +148,8 @@ export function makeRowReader(header: readonly string[], file: string, legacy: b
     const timedOut = flag(fields, line, iTimedOut);
     const recentered = flag(fields, line, iRecentered);
     const clutched = flag(fields, line, iClutched);
-    const participant = text(fields, line, iParticipant);
-    const condition = text(fields, line, iCondition);
+    const participant = participantCode(fields, line, iParticipant);
+    const condition = conditionCode(fields, line, iCondition);
     const block = int(fields, line, integers[0]!);
     const sequence = int(fields, line, integers[1]!);
     const hit = hitText === "1";
