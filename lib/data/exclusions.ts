@@ -4,7 +4,8 @@ import { assertCanEditStudy, type SessionUser } from "@/lib/auth/guards";
 import type { Queryable } from "@/lib/db";
 import { conflict, notFound } from "@/lib/errors";
 import type { ResearcherExclusion } from "@/lib/results/buildResultsView";
-import { qualityFlags } from "@/lib/results/qualityFlags";
+import { isEventDriven, qualityFlags } from "@/lib/results/qualityFlags";
+import { conditionConfig, conditionsOf, type StudyDesign } from "@/lib/study/design";
 import { auditAs } from "@/lib/study/service/audit";
 
 const reason = z.string().trim().min(3, "Give the reason, as it will read in the results and the archive.").max(500);
@@ -101,10 +102,11 @@ export async function revokeExclusion(db: Knex, user: SessionUser | null, studyI
 /**
  * One participant's measured sequences with what suggests excluding them (sequenceCandidates):
  * the stream's data-quality figures against the study's minimum rate, samples the runner dropped,
- * and the error rate (lib/results/qualityFlags, the results page's own rules); with any active
- * exclusion of each.
+ * and the error rate (lib/results/qualityFlags, the results page's own rules; no rate limit for a
+ * condition on a mouse or a touch screen, which report only when used); with any active exclusion
+ * of each.
  */
-export async function sequenceCandidates(q: Queryable, studyId: number, participantId: number, minSampleRateHz: number): Promise<{
+export async function sequenceCandidates(q: Queryable, studyId: number, participantId: number, design: StudyDesign | null): Promise<{
   conditionIndex: number; condition: string; block: number; sequence: number; movements: number; errorRate: number | null; flags: string[]; exclusionId: number | null; reason: string | null;
 }[]> {
   const [streams, trials, active] = await Promise.all([
@@ -114,6 +116,8 @@ export async function sequenceCandidates(q: Queryable, studyId: number, particip
       .select<{ condition_index: number; block: number; sequence: number; n: number; miss: number }[]>("condition_index", "block", "sequence", q.raw("COUNT(*) as n"), q.raw("SUM(1 - hit) as miss")),
     q("exclusions").where({ study_id: studyId, participant_id: participantId, scope: "sequence" }).whereNull("revoked_at").select<{ id: number; condition_index: number; block: number; sequence: number; reason: string }[]>("id", "condition_index", "block", "sequence", "reason"),
   ]);
+  const minSampleRateHz = design?.minSampleRateHz ?? 0;
+  const eventDriven = new Set(design ? conditionsOf(design).filter((c) => isEventDriven(conditionConfig(design, c).technique)).map((c) => c.index) : []);
   return streams.map((s) => {
     const same = (x: { condition_index: number; block: number; sequence: number }) => x.condition_index === s.condition_index && x.block === s.block && x.sequence === s.sequence;
     const t = trials.find(same);
@@ -121,7 +125,7 @@ export async function sequenceCandidates(q: Queryable, studyId: number, particip
     const quality = (typeof s.quality === "string" ? JSON.parse(s.quality) : s.quality) as { sampleRateHz?: number; droppedSamples?: number } | null;
     const errorRate = t && Number(t.n) > 0 ? Number(t.miss) / Number(t.n) : null;
     const flags = qualityFlags(
-      { sampleRateHz: quality?.sampleRateHz ?? null, maxGapMs: null, dropped: quality?.droppedSamples ?? 0, hasStream: Boolean(s.stream_present), errorRate, excluded: 0, kept: t ? Number(t.n) : 0 },
+      { sampleRateHz: quality?.sampleRateHz ?? null, maxGapMs: null, dropped: quality?.droppedSamples ?? 0, hasStream: Boolean(s.stream_present), errorRate, excluded: 0, kept: t ? Number(t.n) : 0, eventDriven: eventDriven.has(s.condition_index) },
       { minSampleRateHz, maxGapMs: 100, maxErrorRate: 0.25 },
     ).filter((f) => f.level === "warning").map((f) => f.text);
     return { conditionIndex: s.condition_index, condition: s.condition, block: s.block, sequence: s.sequence, movements: t ? Number(t.n) : 0, errorRate, flags, exclusionId: e?.id ?? null, reason: e?.reason ?? null };

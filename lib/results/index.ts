@@ -9,7 +9,7 @@ export { replayTrajectory, type Trajectory } from "./replayTrajectory";
 export { replayPositions, type ReplayedPositions, type ReplaySetup } from "./replayPositions";
 export { replaySetupFor, NO_CALIBRATION, type ParticipantCalibration } from "./participantCalibration";
 export { sequencePathMeasures, type PathOptions, type RecordedMovement as PathMovement, type SequencePaths } from "./sequencePathMeasures";
-export { qualityFlags, type QualityFlag, type QualityThresholds } from "./qualityFlags";
+export { isEventDriven, qualityFlags, type QualityFlag, type QualityThresholds } from "./qualityFlags";
 export { buildResultsView, type ResultsView, type ResultsParticipant, type ResultsOptions, type ResearcherExclusion, type PathStatus } from "./buildResultsView";
 export { participantView, type ParticipantView, type ParticipantSequenceView, type ParticipantStream } from "./participantView";
 export { streamPaths, pathMovementsOf, PATH_METHOD_VERSION } from "./streamPaths";

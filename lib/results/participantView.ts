@@ -6,7 +6,7 @@ import type { TransferConfig } from "../motion/config";
 import { conditionConfig, conditionsOf, type StudyDesign } from "../study/design";
 import { analysisUnitOf, geometryOf } from "./analysisUnit";
 import { replaySetupFor, type ParticipantCalibration } from "./participantCalibration";
-import { qualityFlags, type QualityFlag } from "./qualityFlags";
+import { isEventDriven, qualityFlags, type QualityFlag } from "./qualityFlags";
 import { replayTrajectory, type Trajectory } from "./replayTrajectory";
 import { trialRowFromRecord, type TrialRecord } from "./trialRecord";
 
@@ -104,7 +104,7 @@ export function participantView(
       seen.add(key);
       const summary = summaryOf.get(key) ?? null;
       const flags = qualityFlags(
-        { sampleRateHz: replay?.sampleRateHz ?? null, maxGapMs: replay?.maxGapMs ?? null, dropped: replay?.dropped ?? 0, hasStream: s.gz !== null, errorRate: summary?.errorRate ?? null, excluded: summary?.excluded ?? 0, kept: summary ? summary.n : rows.length ? 0 : null },
+        { sampleRateHz: replay?.sampleRateHz ?? null, maxGapMs: replay?.maxGapMs ?? null, dropped: replay?.dropped ?? 0, hasStream: s.gz !== null, errorRate: summary?.errorRate ?? null, excluded: summary?.excluded ?? 0, kept: summary ? summary.n : rows.length ? 0 : null, eventDriven: config ? isEventDriven(config.technique) : false },
         limits,
       );
       if (broken) flags.unshift({ level: "warning", text: `the raw stream could not be read: ${broken}` });

@@ -6,7 +6,7 @@ import {
   buildDataPackage, coarsenAgeBand, coarsenExperience, coarsenHandedness, csvLine, kAnonymity, randomPseudonyms, stablePseudonym,
   trialsTableSpec, sequencesTableSpec, validateDataPackage, valueMatchesFieldType,
 } from "@/lib/export";
-import { endpointScatter, learningCurve, progressCounts, qualityFlags } from "@/lib/results";
+import { endpointScatter, isEventDriven, learningCurve, progressCounts, qualityFlags } from "@/lib/results";
 import { trialCsvHeader } from "@/lib/trials";
 import type { SequenceSummary } from "@/lib/analysis";
 
@@ -137,5 +137,12 @@ describe("results pieces", () => {
       "1 misfire(s) removed by the exclusion rule", "error rate 40 % is above 25 %",
     ]);
     expect(qualityFlags({ sampleRateHz: 60, maxGapMs: 20, dropped: 0, hasStream: true, errorRate: 0.04, excluded: 0, kept: 12 }, { minSampleRateHz: 50, maxGapMs: 100, maxErrorRate: 0.25 })).toEqual([]);
+  });
+  it("a mouse or a touch screen is not held to a sensor rate: it reports only when used (W3C Pointer Events: events on change, no sampling rate)", () => {
+    const tapOnly = { sampleRateHz: 1.4, maxGapMs: 1272, dropped: 0, hasStream: true, errorRate: 0.4, excluded: 0, kept: 5 };
+    const limits = { minSampleRateHz: 50, maxGapMs: 100, maxErrorRate: 0.25 };
+    expect(qualityFlags({ ...tapOnly, eventDriven: true }, limits).map((f) => f.text)).toEqual(["error rate 40 % is above 25 %"]);
+    expect(qualityFlags(tapOnly, limits)).toHaveLength(3); // the same stream from a motion sensor is flagged
+    expect(["touch", "mouse", "motion", "stick", "motion+touch"].map(isEventDriven)).toEqual([true, true, false, false, false]);
   });
 });

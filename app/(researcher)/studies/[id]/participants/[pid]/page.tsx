@@ -24,7 +24,7 @@ export default async function ParticipantPage({ params }: { params: Promise<{ id
   const participant = await fetchStudyParticipant(db, id, pid);
   if (!participant) notFound();
   const design = await fetchStudyDesign(db, id);
-  const [sequences, exclusions] = await Promise.all([sequenceCandidates(db, id, pid, design?.minSampleRateHz ?? 0), listExclusions(db, id, { participantId: pid })]);
+  const [sequences, exclusions] = await Promise.all([sequenceCandidates(db, id, pid, design), listExclusions(db, id, { participantId: pid })]);
   const whole = exclusions.find((e) => e.scope === "participant");
   return (
     <article className="space-y-4">
