@@ -14,14 +14,15 @@ type Simulated = { codes: string[]; minutes: { median: number; min: number; max:
  * phone through a short link and QR code, or fill the study with simulated participants to see the
  * results, the time per session and the archive before anyone real takes part.
  */
-export function PilotPanel({ studyId }: { studyId: number }) {
+/** realParticipantsPossible: the study is approved, so simulated people would mix with real ones unless left out (the default then). */
+export function PilotPanel({ studyId, realParticipantsPossible = false }: { studyId: number; realParticipantsPossible?: boolean }) {
   const router = useRouter();
   const [busy, setBusy] = useState(false);
   const [msg, setMsg] = useState<{ ok: boolean; text: string } | null>(null);
   const [phone, setPhone] = useState<Started | null>(null);
   const [n, setN] = useState("6");
   const [spread, setSpread] = useState("15");
-  const [include, setInclude] = useState(true);
+  const [include, setInclude] = useState(!realParticipantsPossible);
   const [simulated, setSimulated] = useState<Simulated | null>(null);
   const run = async (f: () => Promise<void>) => {
     setBusy(true);
@@ -66,6 +67,7 @@ export function PilotPanel({ studyId }: { studyId: number }) {
           <div><label htmlFor="sim-n">Simulated participants</label><input id="sim-n" className="input w-24" inputMode="numeric" value={n} onChange={(e) => setN(e.target.value)} /></div>
           <div><label htmlFor="sim-spread">Spread between people (%)</label><input id="sim-spread" className="input w-24" inputMode="numeric" value={spread} onChange={(e) => setSpread(e.target.value)} /></div>
           <label className="flex items-center gap-2"><input type="checkbox" checked={include} onChange={(e) => setInclude(e.target.checked)} /> Show them in results and archives</label>
+          {realParticipantsPossible && <p className="w-full text-xs text-slate-600" data-testid="simulated-left-out">Left out by default: this study is approved, and simulated people shown in the results would mix with real participants&apos; data. You can include or leave them out later on the Participants page.</p>}
           <button type="button" className="btn-secondary" disabled={busy} onClick={() => void simulate()}>{busy ? "Simulating…" : "Run the simulated pilot"}</button>
         </div>
         {simulated && (

@@ -27,7 +27,7 @@ export default async function StudyOverviewPage({ params }: { params: Promise<{ 
       </dl>
       <p className="max-w-prose whitespace-pre-line text-sm">{study.summary}</p>
       {canEdit && <StudyMetaForm studyId={study.id} initial={{ title: study.title, summary: study.summary, protocolNumber: study.protocolNumber }} inForceVersion={pending.inForce?.version ?? null} />}
-      {canEdit && stored.design && <PilotPanel studyId={study.id} />}
+      {canEdit && stored.design && <PilotPanel studyId={study.id} realParticipantsPossible={!["draft", "in_review"].includes(study.status)} />}
       {canEdit && !stored.design && <p className="notice max-w-prose" data-testid="pilot-needs-design">Pilots (yourself, on a phone, or simulated participants) open here once a design is saved: see the <Link href={`/studies/${study.id}/design`}>Design</Link> tab.</p>}
       <section className="space-y-2">
         <h2>Team</h2>
