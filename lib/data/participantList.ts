@@ -46,6 +46,7 @@ export interface ParticipantListEntry {
 
 type Row = ParticipantRow & { version: number | null; device_summary: unknown };
 
+const BEFORE_TASKS = new Set(["info", "consent", "device", "calibration", "instructions"]);
 const STAGE_WORDS: Record<string, string> = { info: "information", consent: "consent", device: "device check", calibration: "calibration", instructions: "instructions", final: "final questions", complete: "complete" };
 
 /**
@@ -117,7 +118,9 @@ function stageOf(r: Row, design: StudyDesign | null, stored: number): string {
   if (r.status === "completed") return "complete";
   if (r.status === "invited") return "not started";
   const progress = progressSchema.safeParse(jsonColumn(r.progress));
-  const stage = progress.success ? progress.data.stage : "consent";
+  const reported = progress.success ? progress.data.stage : "consent";
+  // the tasks have started (a place was taken) even if the browser has not yet reported its next stage
+  const stage = r.status === "in_progress" && BEFORE_TASKS.has(reported) ? "task" : reported;
   if (stage !== "task") return STAGE_WORDS[stage] ?? stage;
   if (!design) return `task, ${stored} round(s) stored`;
   const planned = design.blocks * conditionsOf(design).length * design.task.amplitudes.length * design.task.widths.length * design.task.sequencesPerAW;

@@ -48,6 +48,15 @@ test("four start, one is refused at the device check, one withdraws, and the nex
     await expect(tr.locator('[data-col="in-progress"]')).toHaveText("0");
     await expect(tr.locator('[data-col="free"]')).toHaveText("0");
   }
+  // the live monitor: stage and device verdict, the refused participant not counted as in progress, each code a link to their page
+  await page.goto(`/studies/${studyId}/monitor`);
+  await expect(page.getByTestId("monitor-counts")).toContainText("0 in progress, 1 refused at the device check, 6 started in total.");
+  const refusedRow = page.getByRole("table", { name: "Live sessions" }).getByRole("row").filter({ hasText: a!.code });
+  await expect(refusedRow.getByRole("cell").nth(2)).toHaveText("device check");
+  await expect(refusedRow.getByRole("cell").nth(3)).toHaveText("refused");
+  await refusedRow.getByRole("link", { name: a!.code }).click();
+  await expect(page.getByRole("heading", { name: `Participant ${a!.code}` })).toBeVisible();
+
   // the completed orders, as the participants page's rows show them: 1, 2, 3, 4 once each
   await page.goto(`/studies/${studyId}/participants`);
   const table = page.getByRole("table", { name: "Participants" });

@@ -23,12 +23,15 @@ export default async function MonitorPage({ params }: { params: Promise<{ id: st
   }
   const [sessions, list] = await Promise.all([fetchMonitor(db, id), fetchParticipantList(db, id, { isOwner: false })]);
   const detail = new Map(list.map((p) => [p.id, p]));
-  const active = sessions.filter((s) => s.status === "consented" || s.status === "in_progress").length;
+  const open = sessions.filter((s) => s.status === "consented" || s.status === "in_progress");
+  // refused by the device check: they cannot go on with this device, so they are not "in progress"
+  const refused = open.filter((s) => detail.get(s.id)?.deviceVerdict === "refused").length;
+  const active = open.length - refused;
   return (
     <article className="space-y-3">
       <h1>Live sessions: {title}</h1>
-      <p className="text-sm">{active} in progress, {sessions.length} started in total. <AutoRefresh seconds={10} /></p>
-      <table className="w-full text-sm">
+      <p className="text-sm" data-testid="monitor-counts">{active} in progress, {refused > 0 ? `${refused} refused at the device check, ` : ""}{sessions.length} started in total. <AutoRefresh seconds={10} /></p>
+      <table className="w-full text-sm" aria-label="Live sessions">
         <thead>
           <tr className="text-left">
             <th>Participant</th><th>Status</th><th>Stage</th><th>Device check</th><th>Last activity</th><th>Rounds stored</th><th>Sensor rate</th><th>Error rate</th><th>Data quality</th>
