@@ -1,7 +1,7 @@
 import type { Queryable } from "@/lib/db";
 import { fetchSessionByToken } from "@/lib/data/participants";
 import { fetchInForceVersion } from "@/lib/study/service/protocol";
-import { studyDesignSchema } from "@/lib/study/design";
+import { conditionConfig, conditionsOf, studyDesignSchema } from "@/lib/study/design";
 import { designSummary } from "@/lib/study/summary/designSummary";
 import { studyOfPublicLink } from "./service";
 
@@ -20,6 +20,8 @@ export type PublicStudyInfo = {
   minutes: number | null;
   compensation: string;
   viewMode: boolean;
+  /** Some condition is aimed by turning the device (motion sensors): the wrist caution applies. */
+  turnsDevice: boolean;
   panelParam: string | null;
 };
 
@@ -35,6 +37,7 @@ export async function publicStudyInfo(q: Queryable, publicToken: string): Promis
     studyId: study.id, recruiting: study.status === "recruiting",
     title: inForce?.title || own!.title, summary: inForce ? inForce.summary : own!.summary,
     minutes: design ? designSummary(design).estimatedMinutes : null, compensation: design?.compensation ?? "", viewMode: design?.task.displayMode === "view",
+    turnsDevice: design ? conditionsOf(design).some((c) => /motion|tilt/.test(conditionConfig(design, c).technique)) : true,
     panelParam: study.panelParam,
   };
 }

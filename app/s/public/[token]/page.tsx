@@ -31,7 +31,9 @@ export default async function PublicLinkPage({ params, searchParams }: { params:
       <div className="notice space-y-1" role="note">
         <h2 className="font-semibold">Before you start</h2>
         <ul className="list-disc pl-5">
-          <li>You will aim at targets on your own device. Repeated wrist rotation can strain: rest whenever you need to.</li>
+          {info.turnsDevice
+            ? <li>You will aim at targets by turning your own device. Repeated wrist rotation can strain: rest whenever you need to.</li>
+            : <li>You will aim at targets on your own device. Many quick, precise movements can tire the hand: rest whenever you need to.</li>}
           {info.viewMode && <li>The view turns as you move. Turning views can cause motion sickness: stop at once if you feel unwell.</li>}
           <li>Targets are highlighted. If bright, changing highlights affect you (photosensitivity), do not take part.</li>
           <li>Taking part is voluntary. The next pages explain the study in full and ask for your consent; you can stop at any time.</li>
