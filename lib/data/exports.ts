@@ -160,26 +160,32 @@ export async function databaseArchiveSource(db: Knex, studyId: number): Promise<
     exclusions: exclusions.map((e) => ({ participantId: e.participantId, scope: e.scope, condition: e.condition, block: e.block, sequence: e.sequence, reason: e.reason, movements: e.movements })),
     counts: { trials: await countOf("trials", { practice: false }), streams: await countOf("sequence_streams") },
     async *trials(): AsyncIterable<TrialRecord> {
-      if (ids.length === 0) return;
-      let last = 0;
-      for (;;) {
-        // the team's exclusions are honoured here: excluded participants' and sequences' movements never reach the archive
-        const rows = (await whereNotExcluded(db("trials as t").whereIn("t.participant_id", ids).andWhere("t.practice", false).andWhere("t.id", ">", last)).orderBy("t.id").limit(page).select("t.id", ...TRIAL_RECORD_COLUMNS.map((c) => `t.${c}`))) as (TrialRecord & { id: number })[];
-        for (const r of rows) yield r;
-        if (rows.length < page) return;
-        last = Number(rows.at(-1)!.id);
+      // participant by participant in the order of `participants` (the writer's pseudonym order)
+      for (const person of participants) {
+        let last = 0;
+        for (;;) {
+          // the team's exclusions are honoured here: excluded participants' and sequences' movements never reach the archive
+          const rows = (await whereNotExcluded(db("trials as t").where("t.participant_id", person.id).andWhere("t.practice", false).andWhere("t.id", ">", last)).orderBy("t.id").limit(page).select("t.id", ...TRIAL_RECORD_COLUMNS.map((c) => `t.${c}`))) as (TrialRecord & { id: number })[];
+          for (const r of rows) yield r;
+          if (rows.length < page) break;
+          last = Number(rows.at(-1)!.id);
+        }
       }
     },
     async *answers(): AsyncIterable<ExportAnswer> {
       if (ids.length === 0) return;
       const rows = await db("questionnaire_answers").whereIn("participant_id", ids).orderBy("id")
         .select<{ participant_id: number; condition: string; item_id: string; value_int: number | null; value_text: string | null; answered_at: Date }[]>("participant_id", "condition", "item_id", "value_int", "value_text", "answered_at");
+      const rank = new Map(participants.map((p, i) => [p.id, i]));
+      rows.sort((x, y) => rank.get(x.participant_id)! - rank.get(y.participant_id)!); // stable: each one's answers keep their order
       for (const a of rows) yield { participantId: a.participant_id, condition: a.condition, itemId: a.item_id, valueInt: a.value_int, valueText: a.value_text, answeredAt: a.answered_at };
     },
     async *streams(): AsyncIterable<ExportStream> {
       if (ids.length === 0) return;
       const metas = await whereNotExcluded(db("sequence_streams as t").whereIn("t.participant_id", ids)).orderBy("t.id")
         .select<{ id: number; participant_id: number; condition: string; condition_index: number; block: number; sequence: number; practice: number | boolean }[]>("t.id", "t.participant_id", "t.condition", "t.condition_index", "t.block", "t.sequence", "t.practice");
+      const rank = new Map(participants.map((p, i) => [p.id, i]));
+      metas.sort((x, y) => rank.get(x.participant_id)! - rank.get(y.participant_id)!);
       for (const m of metas) {
         yield {
           participantId: m.participant_id, condition: m.condition, conditionIndex: m.condition_index, block: m.block, sequence: m.sequence, practice: Boolean(m.practice),
@@ -191,7 +197,7 @@ export async function databaseArchiveSource(db: Knex, studyId: number): Promise<
     /** Path accuracy, one participant at a time (kept in path_measures; computed where missing). */
     async paths(): Promise<StoredPath[]> {
       const out: StoredPath[] = [];
-      for (const p of people) {
+      for (const p of participants) {
         const { entries } = await pathEntries(db, design, [{ id: p.id, code: String(p.id), status: p.status as ParticipantStatus }], await fetchStudyTrialRecords(db, studyId, p.id));
         out.push(...entries);
       }

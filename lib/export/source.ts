@@ -48,7 +48,8 @@ export interface ExportStream {
 /**
  * Everything an archive is written from. The iterables are pulled as the archive is written, so
  * a source backed by the database (lib/data/exports.ts) or by files (the benchmark) never holds the
- * whole study in memory.
+ * whole study in memory. They yield participant by participant, in the order `participants` has
+ * when they are pulled (writeArchive sorts it by pseudonym first), never in database order.
  */
 export interface ArchiveSource {
   study: { id: number; title: string; design: StudyDesign; createdAt: Date };

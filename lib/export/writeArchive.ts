@@ -23,6 +23,7 @@ import { calibrationRows, calibrationTableSpec, CONFIGURATIONS_FILE, configurati
 import { buildMethods } from "./methods";
 import type { ExportOptions } from "./options";
 import { participantRows, QUASI_IDENTIFIERS } from "./participantRows";
+import { reencodeStream } from "./reencodeStream";
 import { cellRows, conditionRows, sequenceRows } from "./resultRows";
 import type { ArchiveSource } from "./source";
 import {
@@ -137,6 +138,11 @@ export async function writeArchive(
     if (p === undefined) throw new Error(`writeArchive requires a pseudonym for participant ${id}`);
     return p;
   };
+  // Rows go in pseudonym order, never in the database's (enrolment) order: otherwise the n-th
+  // participant of one archive would be the n-th of another, and of the consent register, whatever
+  // the pseudonyms. Sources yield their movements, answers and streams participant by participant
+  // in the order of `participants` (ArchiveSource), so sorting it orders every table.
+  source.participants.sort((a, b) => (pseudonymOf(a.id) < pseudonymOf(b.id) ? -1 : pseudonymOf(a.id) > pseudonymOf(b.id) ? 1 : 0));
 
   const files: string[] = [];
   const warnings: string[] = [];
@@ -222,7 +228,9 @@ export async function writeArchive(
     // participants.csv and the k-anonymity check
     const partSpec = participantsTableSpec(betweenNames, options.includeDates);
     const partRows = participantRows(source.participants, pseudonyms, betweenNames, options.includeDates);
-    const k = kAnonymity(partRows, [...QUASI_IDENTIFIERS, ...betweenNames.map((b) => `between_${b}`)], K_ANONYMITY_THRESHOLD);
+    // every quasi-identifier participants.csv writes: the coarsened answers, the between groups, the session's length and, when included, its dates
+    const quasi = [...QUASI_IDENTIFIERS, ...betweenNames.map((b) => `between_${b}`), "session_minutes", ...(options.includeDates ? ["started_at", "completed_at"] : [])];
+    const k = kAnonymity(partRows, quasi, K_ANONYMITY_THRESHOLD);
     if (partRows.length > 0 && k.k < K_ANONYMITY_THRESHOLD) {
       warnings.push(
         `participants.csv is only ${k.k}-anonymous over ${k.quasiIdentifiers.join(", ")} (below k = ${K_ANONYMITY_THRESHOLD}): ${k.smallGroups.length} group(s) have fewer than ${K_ANONYMITY_THRESHOLD} participants. Consider leaving those columns out before sharing.`,
@@ -273,19 +281,29 @@ export async function writeArchive(
       await add("calibration.csv", Readable.from(csvChunks(calSpec.fields.map((f) => f.name), calibrationRows(source.participants, cals, pseudonymOf))));
     }
 
-    // streams/: the stored gzip replay CSVs, one at a time, not recompressed
+    // streams/: the stored gzip replay CSVs, one at a time, re-encoded (only the format's columns, validated, a plain gzip header)
     let streams = 0;
+    let unreadable = 0;
     if (options.includeStreams) {
       for await (const s of source.streams()) {
         if (!startOf.has(s.participantId)) continue;
         const data = await s.read();
         if (!data) continue;
         const name = `streams/${safe(pseudonymOf(s.participantId))}/b${s.block}-c${s.conditionIndex + 1}-s${s.sequence}${s.practice ? "-practice" : ""}.csv.gz`;
-        await add(name, data, true);
+        let clean: Buffer;
+        try {
+          clean = reencodeStream(data, name);
+        } catch {
+          unreadable++;
+          continue;
+        }
+        await add(name, clean, true);
         streams++;
         if (streams % 20 === 0) onProgress(trialWeight + streamWeight * Math.min(1, streams / Math.max(1, source.counts.streams)), "raw streams");
       }
     }
+
+    if (unreadable > 0) warnings.push(`${unreadable} stored stream(s) are not in the stream format and were left out of streams/.`);
 
     onProgress(0.96, "descriptions");
     const tables: TableSpec[] = [trialsSpec, seqSpec, cellSpec, condSpec, ...(paths.rows.length > 0 ? [pathSpec] : []), partSpec, exclSpec, qSpec, ...(withCalibration ? [calSpec] : [])];
@@ -306,7 +324,7 @@ export async function writeArchive(
         : "No path accuracy: no sequence had a stored stream that reproduced its recorded selections.",
     );
     const streamSection = options.includeStreams
-      ? ["## streams/", "", "One gzip file per sequence, `streams/<participant>/b<block>-c<condition number>-s<sequence>.csv.gz`, in the raw sensor stream format: `t_ms, gyro_x, gyro_y, gyro_z` (deg/s about the device axes of the W3C Device Orientation and Motion specification), `accel_x, accel_y, accel_z` (m/s², including gravity), `stick_x, stick_y` (−1..1), `buttons` (bitmask), `screen_angle` (deg); `npm run replay` reads them. Condition numbers count from 1 in the order of conditions.csv.", ""]
+      ? ["## streams/", "", "One gzip file per sequence, `streams/<participant>/b<block>-c<condition number>-s<sequence>.csv.gz`, in the raw sensor stream format: `t_ms, gyro_x, gyro_y, gyro_z` (deg/s about the device axes of the W3C Device Orientation and Motion specification), `accel_x, accel_y, accel_z` (m/s², including gravity), `stick_x, stick_y` (−1..1), `buttons` (bitmask), `screen_angle` (deg); `npm run replay` reads them. Condition numbers count from 1 in the order of conditions.csv. Each file is written anew for the archive from the validated samples (only the format's columns; a gzip header without file name or time stamp).", ""]
       : [];
     const descriptor = buildDataPackage(
       { id: source.study.id, title: source.study.title, description: "Anonymised data of a motion-aiming pointing study (ISO 9241-411 measures), exported from Yawpoint.", created: new Date() },
