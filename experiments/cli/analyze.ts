@@ -6,6 +6,13 @@ import { analyzeTrialFile, EXCLUSION_RULES } from "../../lib/analysis";
 import { analyzeArchive } from "../../lib/export/analyzeArchive";
 import { FLAG_COLUMNS, TrialTableError } from "../../lib/trials";
 import { formatReport } from "./formatReport";
+import { writeJson } from "./writeJson";
+
+/** The JSON result and a line end, written in pieces (writeJson: the same bytes as JSON.stringify). */
+function printJson(value: unknown): void {
+  writeJson(value, (piece) => process.stdout.write(piece));
+  process.stdout.write("\n");
+}
 
 const usage =
   "usage: analyze FILE.csv | --archive FILE.zip [--json] [--start actual|nominal] [--exclude misfire|mt3sd|misfire+mt3sd|none] [--drop-flagged timed_out,recentered,clutched] [--unit px|mm|deg] [--geometry plane|sphere] [--anova tp,mt,errorRate] [--legacy]";
@@ -55,7 +62,8 @@ async function main(argv: string[]): Promise<number> {
       // The archive says its unit and geometry (configurations.json); the exclusion choices are ours.
       const { result, pathSource, pathProblems } = await analyzeArchive(args.file, { start: args.start, exclude: args.exclude, dropFlagged: args.dropFlagged, anova: args.anova });
       const out = { ...result, archive: { pathSource, pathProblems } };
-      process.stdout.write(args.json ? JSON.stringify(out) + "\n" : formatReport(result, basename(args.file)));
+      if (args.json) printJson(out);
+      else process.stdout.write(formatReport(result, basename(args.file)));
       return 0;
     }
     const result = await analyzeTrialFile(args.file, {
@@ -68,7 +76,8 @@ async function main(argv: string[]): Promise<number> {
       anova: args.anova,
       legacy: args.legacy,
     });
-    process.stdout.write(args.json ? JSON.stringify(result) + "\n" : formatReport(result, basename(args.file)));
+    if (args.json) printJson(result);
+    else process.stdout.write(formatReport(result, basename(args.file)));
     return 0;
   } catch (err) {
     if (err instanceof TrialTableError) {
