@@ -1,12 +1,14 @@
 import { spawnSync } from "node:child_process";
 import { describe, expect, test, vi } from "vitest";
 
-// Each test starts the CLI in a process of its own (tsx): allow for a busy machine.
+// Each test starts the CLI in a process of its own, as `npm run analyze` starts it (node and the
+// launcher run.mjs, which runs a bundle built once, not tsx and npx on every start): allow for a
+// busy machine all the same.
 vi.setConfig({ testTimeout: 60_000 });
 
 const FIX = "tests/fixtures/analysis/";
 function run(...args: string[]) {
-  const r = spawnSync("npx", ["tsx", "--no-warnings", "experiments/cli/analyze.ts", ...args], { encoding: "utf8" });
+  const r = spawnSync(process.execPath, ["--no-warnings", "experiments/cli/run.mjs", "analyze", ...args], { encoding: "utf8" });
   return { status: r.status, stdout: r.stdout, stderr: r.stderr };
 }
 
