@@ -161,7 +161,7 @@ export function DesignForm({ studyId, initial, readOnly }: { studyId: number; in
 
         <section className="card grid gap-3 sm:grid-cols-3">
           <h2 className="sm:col-span-3">{L.counterbalancing}</h2>
-          <div><label htmlFor="cb-method">Method</label><select id="cb-method" className="input" {...register("counterbalancing.method")}><option value="williams">Balanced Latin square (Williams)</option><option value="cyclic">Cyclic Latin square</option><option value="all-orders">All orders (at most 4 conditions)</option><option value="random">Random, from a stored seed</option></select></div>
+          <div><label htmlFor="cb-method">Method</label><select id="cb-method" className="input" {...register("counterbalancing.method")}><option value="williams">Balanced Latin square (Williams)</option><option value="cyclic">Cyclic Latin square</option><option value="all-orders">All orders (at most 4 conditions)</option><option value="random">Random, from a stored seed</option></select><Err errors={errors} path="counterbalancing.method" /></div>
           <div><label htmlFor="cb-seed">Seed (random method)</label><input id="cb-seed" type="number" className="input" {...register("counterbalancing.seed", { valueAsNumber: true })} /><Err errors={errors} path="counterbalancing.seed" /></div>
         </section>
       </fieldset>

@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { transferConfigSchema, type TransferConfig } from "@/lib/motion/config";
+import { conditionLimit } from "./counterbalance/conditionLimit";
 import { configFieldIssues, levelFieldIssues } from "./editor/configIssues";
 
 /**
@@ -89,6 +90,15 @@ export const studyDesignSchema = z
     if (d.conditionSubset !== null) {
       if (d.conditionSubset.length === 0) ctx.addIssue({ code: "custom", path: ["conditionSubset"], message: "choose at least one condition" });
       for (const c of d.conditionSubset) if (!all.some((x) => x.label === c)) ctx.addIssue({ code: "custom", path: ["conditionSubset"], message: `unknown condition "${c}"` });
+    }
+    // The counterbalancing must be able to order the conditions every participant runs.
+    const runs = d.conditionSubset === null ? all.length : all.filter((c) => d.conditionSubset!.includes(c.label)).length;
+    const limit = conditionLimit(d.counterbalancing.method);
+    if (runs > limit) {
+      ctx.addIssue({
+        code: "custom", path: ["counterbalancing", "method"],
+        message: `${runs} conditions are more than this method orders (at most ${limit}${limit < 64 ? "; the Latin squares take up to 64" : ""}): choose the conditions to run under Conditions, or use fewer levels`,
+      });
     }
     // The base settings, and each level over the base, must be valid: the problem is reported at
     // the field (baseConfig.gain, factors.1.levels.0.config.gain) so the form shows it there.

@@ -137,6 +137,35 @@ describe("counterbalancingRows and orderForParticipant on a design", () => {
   });
 });
 
+describe("the design refuses more conditions than its counterbalancing orders (and the page's order preview never throws)", () => {
+  const four = (name: string) => ({ name, levels: [1, 2, 3, 4].map((i) => ({ label: `${name} ${i}`, config: {} })) });
+  const big = { ...design2x2, factors: [four("a"), four("b"), four("c"), four("d")] }; // 4 × 4 × 4 × 4 = 256
+  const methodIssue = (over: Partial<StudyDesignInput>) => {
+    const r = studyDesignSchema.safeParse({ ...big, ...over });
+    return r.success ? null : (r.error.issues.find((i) => i.path.join(".") === "counterbalancing.method")?.message ?? null);
+  };
+  it("the full 4 × 4 × 4 × 4 crossing (256 conditions) is refused at the method, for every method", () => {
+    for (const method of ["williams", "cyclic", "random", "all-orders"] as const) {
+      expect(methodIssue({ counterbalancing: { method, seed: 1 } })).toMatch(/^256 conditions are more than this method orders \(at most (64|4)/);
+    }
+  });
+  it("a chosen subset of 16 of them is accepted, and its Williams square (Williams 1949: n rows for even n) is built", () => {
+    const labels = conditionsOf(studyDesignSchema.parse({ ...big, conditionSubset: null, factors: [four("a"), four("b")] })).map((c) => c.label);
+    expect(labels).toHaveLength(16);
+    const subset = labels.map((l, i) => `${l} / c ${(i % 4) + 1} / d ${((i >> 2) % 4) + 1}`);
+    expect(methodIssue({ conditionSubset: subset })).toBeNull();
+    const d = studyDesignSchema.parse({ ...big, conditionSubset: subset });
+    expect(counterbalancingRows(d)).toEqual(williamsRows(16));
+  });
+  it("all orders stops at 4 conditions (4! = 24 rows); the 2 × 2 passes, a fifth condition is refused", () => {
+    expect(studyDesignSchema.safeParse({ ...design2x2, counterbalancing: { method: "all-orders", seed: 1 } }).success).toBe(true);
+    const five = { ...design2x2, factors: [{ name: "gain", levels: [1, 2, 3, 4, 5].map((g) => ({ label: `gain ${g}`, config: { gain: g } })) }], counterbalancing: { method: "all-orders" as const, seed: 1 } };
+    const r = studyDesignSchema.safeParse(five);
+    expect(r.success).toBe(false);
+    expect(r.error!.issues.find((i) => i.path.join(".") === "counterbalancing.method")?.message).toMatch(/^5 conditions .*at most 4; the Latin squares take up to 64/);
+  });
+});
+
 describe("betweenLevelsFor: between-subject groups crossed with the counterbalancing rows", () => {
   // A full factorial crossing: every combination of the between factors' levels is a group, and
   // counterbalancing is done within each group (common practice for mixed designs; from memory:
