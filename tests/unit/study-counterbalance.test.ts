@@ -157,6 +157,22 @@ describe("the design refuses more conditions than its counterbalancing orders (a
     const d = studyDesignSchema.parse({ ...big, conditionSubset: subset });
     expect(counterbalancingRows(d)).toEqual(williamsRows(16));
   });
+  it("levels that conflict only in a combination nobody runs are accepted; run, the combination is refused", () => {
+    // a two-level curve needs its fast speed above its slow speed (docs/configuration.md)
+    const conflict = {
+      ...design2x2,
+      baseConfig: { gainCurve: "two-level" },
+      factors: [
+        // each level alone is fine over the defaults (slow 5, fast 30 deg/s); slow 20 with fast 10 is not
+        { name: "slow", levels: [{ label: "slow 5", config: { curveSlowSpeedDegPerS: 5 } }, { label: "slow 20", config: { curveSlowSpeedDegPerS: 20 } }] },
+        { name: "fast", levels: [{ label: "fast 10", config: { curveFastSpeedDegPerS: 10 } }, { label: "fast 40", config: { curveFastSpeedDegPerS: 40 } }] },
+      ],
+    };
+    const all = studyDesignSchema.safeParse(conflict);
+    expect(all.success).toBe(false);
+    expect(all.error!.issues.map((i) => i.message).join("\n")).toMatch(/condition "slow 20 \/ fast 10"/);
+    expect(studyDesignSchema.safeParse({ ...conflict, conditionSubset: ["slow 5 / fast 10", "slow 5 / fast 40", "slow 20 / fast 40"] }).success).toBe(true);
+  });
   it("all orders stops at 4 conditions (4! = 24 rows); the 2 × 2 passes, a fifth condition is refused", () => {
     expect(studyDesignSchema.safeParse({ ...design2x2, counterbalancing: { method: "all-orders", seed: 1 } }).success).toBe(true);
     const five = { ...design2x2, factors: [{ name: "gain", levels: [1, 2, 3, 4, 5].map((g) => ({ label: `gain ${g}`, config: { gain: g } })) }], counterbalancing: { method: "all-orders" as const, seed: 1 } };

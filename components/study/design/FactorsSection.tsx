@@ -65,9 +65,11 @@ export function FactorsSection({ control, register, errors, readOnly }: { contro
   const design = useMemo(() => ({ baseConfig, factors: factorValues, task: { displayMode } }) as StudyDesignInput, [baseConfig, factorValues, displayMode]);
   const base = (baseConfig ?? EMPTY) as Config;
   const baseIssues = useMemo(() => configFieldIssues(base), [base]);
-  // The base matters for every condition: its fields follow every technique the study uses.
+  // The base matters for every condition: its fields follow every technique the study uses. Every
+  // condition holds exactly one level of the first factor, so that factor's levels' contexts are
+  // all the conditions (the other factors' would only repeat them).
   const baseRelevant = useMemo(() => {
-    const all = (factorValues ?? []).flatMap((_, fi) => (factorValues?.[fi]?.levels ?? []).flatMap((__, li) => levelContexts(design, fi, li)));
+    const all = (factorValues?.[0]?.levels ?? []).flatMap((_, li) => levelContexts(design, 0, li));
     return [...relevantFields(all.length > 0 ? all : [mergedConfigUnchecked([base], displayMode)])].join(",");
   }, [design, factorValues, base, displayMode]);
 
