@@ -31,7 +31,7 @@ describe("simulated power against the analytic answer", () => {
       expect(analytic, `N = ${pt.n}: simulated ${pt.share}`).toBeGreaterThanOrEqual(lo);
       expect(analytic).toBeLessThanOrEqual(hi);
     }
-  });
+  }, 60_000); // 9,000 simulated studies: about 4 s alone, far longer while the whole suite runs on a shared machine
   it("is seeded: the same inputs give the same curve", () => {
     const model = { mainLevelOfCondition: [0, 1, 2, 0, 1, 2], levels: 3, cellSd: [0.2, 0.2, 0.2, 0.2, 0.2, 0.2], smallestDifference: 0.4, spreadBetweenPeople: 0.3, alpha: 0.05 };
     expect(simulatePower(model, [6, 12], 100, 5)).toEqual(simulatePower(model, [6, 12], 100, 5));
