@@ -1,70 +1,116 @@
 "use client";
-import { useState } from "react";
+import { useEffect, useRef, useState } from "react";
 import type { Technique } from "@/lib/motion/config";
-import type { MotionSample } from "@/lib/motion/sample";
 import { sampleRateReport } from "@/lib/motion/calibration/sampleRateReport";
 import { estimateBiasAtRest } from "@/lib/motion/calibration/biasAtRest";
 import { deviceVerdict, type DeviceInputs } from "@/lib/runner/deviceCheck";
+import { inputPathsFor, usesMotion } from "@/lib/runner/inputPaths";
 import { ID1_CARD_HEIGHT_MM, ID1_CARD_WIDTH_MM, pixelsPerMmFromCard, viewingDistanceFromBlindSpot } from "@/lib/runner/calibration";
+import { motionPermissionHelp, sensorBrowser } from "@/lib/runner/permissionHelp";
+import type { InputApi } from "@/lib/runner/batch";
 import type { CalibrationRequest, DeviceRequest } from "@/lib/runner/requests";
-import type { InputProvider } from "./inputs";
+import { askMotionPermission } from "./motionPermission";
+import { controllerReportRate, recordMotion } from "./measure";
 
-const needsMotion = (t: Technique): boolean => t === "motion" || t === "motion+stick" || t === "motion+touch" || t === "tilt-rate";
+const round1 = (x: number): number => Math.round(x * 10) / 10;
+const round3 = (x: number): number => Math.round(x * 1000) / 1000;
 
-/** Collects samples from a provider for `ms` milliseconds. */
-async function collect(provider: InputProvider, ms: number): Promise<MotionSample[]> {
-  const got: MotionSample[] = [];
-  await provider.start((s) => got.push(s));
-  await new Promise((r) => setTimeout(r, ms));
-  provider.stop();
-  return got;
+/** The help shown after the participant refused the motion sensors. */
+export function PermissionHelp() {
+  const steps = motionPermissionHelp(sensorBrowser(navigator.userAgent, navigator.maxTouchPoints));
+  return (
+    <div className="notice space-y-1" role="alert" data-testid="permission-help">
+      <p className="font-semibold">Motion sensors are not allowed in this browser.</p>
+      <p>This study needs them. To allow them again:</p>
+      <ol className="list-decimal pl-5">{steps.map((s) => <li key={s}>{s}</li>)}</ol>
+    </div>
+  );
 }
 
-export function DeviceStep(props: { techniques: Technique[]; minRateHz: number; provider: () => Promise<InputProvider>; screenedReturn?: string | null; onDone: (r: DeviceRequest) => Promise<void> }) {
-  const [state, setState] = useState<"idle" | "measuring" | "refused">("idle");
+/**
+ * The device check: which inputs this device has for the study's techniques, through which
+ * browser paths, how often they report and how old their input is when drawn.
+ */
+export function DeviceStep(props: { techniques: Technique[]; displayMode: "cursor" | "view"; minRateHz: number; screenedReturn?: string | null; onDone: (r: DeviceRequest) => Promise<void> }) {
+  const [state, setState] = useState<"idle" | "measuring" | "refused" | "denied">("idle");
   const [message, setMessage] = useState<string | null>(null);
-  const motion = props.techniques.some(needsMotion);
+  const motion = props.techniques.some(usesMotion);
+  const controller = props.techniques.some((t) => inputPathsFor(t, props.displayMode).gamepad === "required");
   const check = async (): Promise<void> => {
+    // first, inside the tap: iOS asks for the motion sensors only from a user gesture
+    const permission = motion ? await askMotionPermission() : "granted";
+    if (permission === "denied") {
+      setState("denied");
+      return;
+    }
     setState("measuring");
     setMessage(null);
     const inputs: DeviceInputs = {
       motion: false,
-      gamepad: typeof navigator.getGamepads === "function" && Array.from(navigator.getGamepads()).some((g) => g !== null),
+      gamepad: false,
       touch: navigator.maxTouchPoints > 0,
       finePointer: window.matchMedia("(pointer: fine)").matches,
       sampleRateHz: null,
     };
-    let jitter: number | null = null, kind: DeviceRequest["sourceKind"] = "none";
-    if (motion) {
-      try {
-        const provider = await props.provider();
-        kind = provider.kind === "none" ? "none" : provider.kind;
-        const samples = await collect(provider, 2000);
-        if (samples.length >= 3) {
-          const r = sampleRateReport(samples.map((s) => s.tMs));
-          inputs.motion = true;
-          inputs.sampleRateHz = Math.round(r.meanRateHz * 10) / 10;
-          jitter = Math.round(r.jitterSdMs * 1000) / 1000;
-        }
-      } catch (e) {
-        setMessage(e instanceof Error && /permission/.test(e.message) ? "Motion sensors were not allowed. Allow them when your browser asks, then check again." : null);
+    const apis: InputApi[] = [];
+    let jitter: number | null = null, kind: DeviceRequest["sourceKind"] = "none", requestedRateHz: number | null = null;
+    let ageMedian: number | null = null, ageP95: number | null = null, controllerRateHz: number | null = null;
+    const [recording, pads] = await Promise.all([
+      motion ? recordMotion(2000).catch(() => null) : Promise.resolve(null),
+      controller ? controllerReportRate(2000) : Promise.resolve(null),
+    ]);
+    if (recording) {
+      kind = recording.api;
+      apis.push(recording.api);
+      requestedRateHz = recording.requestedRateHz;
+      if (recording.samples.length >= 3) {
+        const r = sampleRateReport(recording.samples.map((s) => s.tMs));
+        inputs.motion = true;
+        inputs.sampleRateHz = round1(r.meanRateHz);
+        jitter = round3(r.jitterSdMs);
+      }
+      if (recording.age) {
+        ageMedian = round3(recording.age.medianMs);
+        ageP95 = round3(recording.age.p95Ms);
       }
     }
+    if (pads !== null) {
+      inputs.gamepad = true;
+      controllerRateHz = pads;
+      apis.push("gamepad");
+      if (kind === "none") kind = "gamepad";
+    } else {
+      const { gamepadConnected } = await import("@/lib/motion/sources/gamepad");
+      inputs.gamepad = gamepadConnected(window);
+    }
     const verdict = deviceVerdict(props.techniques, inputs, props.minRateHz);
-    await props.onDone({ inputs: { motion: inputs.motion, gamepad: inputs.gamepad, touch: inputs.touch, finePointer: inputs.finePointer }, sampleRateHz: inputs.sampleRateHz, jitterSdMs: jitter, sourceKind: kind, verdict: verdict.ok ? "ok" : "refused" });
+    await props.onDone({
+      inputs: { motion: inputs.motion, gamepad: inputs.gamepad, touch: inputs.touch, finePointer: inputs.finePointer },
+      sampleRateHz: inputs.sampleRateHz, jitterSdMs: jitter, sourceKind: kind, verdict: verdict.ok ? "ok" : "refused",
+      inputApis: apis, requestedRateHz, controllerRateHz, inputAgeMedianMs: ageMedian, inputAgeP95Ms: ageP95,
+    });
     if (!verdict.ok) {
       setState("refused");
       setMessage(verdict.message);
-    }
+    } else setState("idle");
   };
   return (
     <section className="space-y-3">
       <h1 className="text-xl font-semibold">Device check</h1>
-      <p>We check which inputs this device has{motion ? " and how often its motion sensors report" : ""}. {motion ? "Your browser may ask to allow motion sensors: please allow them." : ""}</p>
+      <p>
+        We check which inputs this device has{motion ? " and how often its motion sensors report" : ""}{controller ? " and whether your controller is connected" : ""}.
+        {motion && " Your browser may ask to allow motion sensors: please allow them."}
+      </p>
+      {motion && <p>Put the device flat on a table, screen up, then tap the button and do not touch the device for 2 seconds.</p>}
+      {controller && <p>Connect your controller and press any of its buttons once, so the browser can see it.</p>}
+      {state === "denied" && <PermissionHelp />}
       {message && <p className="notice" role="alert">{message}</p>}
       <button type="button" className="btn w-full sm:w-auto" disabled={state === "measuring"} onClick={() => void check()}>
-        {state === "measuring" ? "Checking… hold the device still" : state === "refused" ? "Check again" : "Check my device"}
+        {state === "measuring" ? "Checking… keep the device still" : state === "idle" ? "Check my device" : "Check again"}
       </button>
+      {state === "refused" && props.screenedReturn && (
+        <p>If this device cannot take part, you can <a href={props.screenedReturn} data-testid="screened-return">return to the recruitment site</a>; thank you for your time.</p>
+      )}
       {state === "refused" && props.screenedReturn && (
         <p>If this device cannot take part, you can <a href={props.screenedReturn} data-testid="screened-return">return to the recruitment site</a>; thank you for your time.</p>
       )}
@@ -72,23 +118,48 @@ export function DeviceStep(props: { techniques: Technique[]; minRateHz: number; 
   );
 }
 
-export function CalibrationStep(props: { motion: boolean; needsDistance: boolean; provider: () => Promise<InputProvider>; onSave: (r: CalibrationRequest) => Promise<void>; onDone: () => void }) {
-  const [part, setPart] = useState<"bias" | "card" | "blind">(props.motion ? "bias" : "card");
+/** Which calibration parts a study needs: bias for motion sensors, the card for mm and visual degrees, the blind spot for visual degrees. */
+export function calibrationParts(motion: boolean, unit: "px" | "mm" | "deg-visual" | "deg-view"): Array<"bias" | "card" | "blind"> {
+  const parts: Array<"bias" | "card" | "blind"> = [];
+  if (motion) parts.push("bias");
+  if (unit === "mm" || unit === "deg-visual") parts.push("card");
+  if (unit === "deg-visual") parts.push("blind");
+  return parts;
+}
+
+/** Speed of the blind-spot dot, CSS px per second. */
+const BLIND_DOT_PX_PER_S = 60;
+
+export function CalibrationStep(props: { motion: boolean; unit: "px" | "mm" | "deg-visual" | "deg-view"; onSave: (r: CalibrationRequest) => Promise<void>; onDone: () => void }) {
+  const parts = calibrationParts(props.motion, props.unit);
+  const [index, setIndex] = useState(0);
+  const part = parts[index];
   const [busy, setBusy] = useState(false);
+  const [denied, setDenied] = useState(false);
   const [message, setMessage] = useState<string | null>(null);
   const [cardPx, setCardPx] = useState(324);
   const [pxPerMm, setPxPerMm] = useState<number | null>(null);
   const [blind, setBlind] = useState<number[]>([]);
   const [dotPx, setDotPx] = useState<number | null>(null);
+  const stopRef = useRef<(() => void) | null>(null);
+  const onDone = props.onDone;
+  const nextPart = (): void => {
+    if (index + 1 < parts.length) setIndex(index + 1);
+    else onDone();
+  };
+  useEffect(() => {
+    if (parts.length === 0) onDone(); // nothing to calibrate for this study
+  }, [parts.length, onDone]);
 
   const measureBias = async (): Promise<void> => {
+    if ((await askMotionPermission()) === "denied") return setDenied(true);
     setBusy(true);
     setMessage(null);
     try {
-      const samples = await collect(await props.provider(), 2500);
+      const { samples } = await recordMotion(2500);
       const b = estimateBiasAtRest(samples);
       await props.onSave({ kind: "bias", biasXDegPerS: b.biasXDegPerS, biasYDegPerS: b.biasYDegPerS, biasZDegPerS: b.biasZDegPerS, noiseSdDegPerS: Math.max(b.noiseSdXDegPerS, b.noiseSdYDegPerS, b.noiseSdZDegPerS), samples: b.n });
-      setPart("card");
+      nextPart();
     } catch {
       setMessage("The device moved during the measurement. Put it down on a table (or hold it very still) and try again.");
     } finally {
@@ -101,24 +172,23 @@ export function CalibrationStep(props: { motion: boolean; needsDistance: boolean
     await props.onSave({ kind: "card", cardWidthPx: cardPx, pixelsPerMm: scale });
     setPxPerMm(scale);
     setBusy(false);
-    if (props.needsDistance) setPart("blind");
-    else props.onDone();
+    nextPart();
   };
   const runBlind = (): void => {
-    // the dot starts beside the fixation square and moves left; the participant presses when it vanishes
+    // the dot starts beside the fixation square and moves left, into the left eye's blind spot
     const started = performance.now();
-    const speedPxPerS = 60;
-    const id = setInterval(() => setDotPx(20 + ((performance.now() - started) / 1000) * speedPxPerS), 30);
+    const id = setInterval(() => setDotPx(20 + ((performance.now() - started) / 1000) * BLIND_DOT_PX_PER_S), 30);
     const stop = async (): Promise<void> => {
       clearInterval(id);
+      stopRef.current = null;
       window.removeEventListener("keydown", onKey);
-      const d = 20 + ((performance.now() - started) / 1000) * speedPxPerS;
+      const d = 20 + ((performance.now() - started) / 1000) * BLIND_DOT_PX_PER_S;
       setDotPx(null);
       const all = [...blind, d];
       setBlind(all);
       if (all.length >= 5 && pxPerMm) {
         await props.onSave({ kind: "blind_spot", distancesPx: all, viewingDistanceMm: viewingDistanceFromBlindSpot(all, pxPerMm) });
-        props.onDone();
+        nextPart();
       }
     };
     const onKey = (e: KeyboardEvent): void => {
@@ -127,23 +197,28 @@ export function CalibrationStep(props: { motion: boolean; needsDistance: boolean
         void stop();
       }
     };
+    stopRef.current = () => void stop();
     window.addEventListener("keydown", onKey);
   };
+  useEffect(() => () => stopRef.current?.(), []);
 
+  if (!part) return null;
+  const number = `${index + 1}.`;
   return (
     <section className="space-y-3">
       <h1 className="text-xl font-semibold">Calibration</h1>
       {message && <p className="notice" role="alert">{message}</p>}
       {part === "bias" && (
         <>
-          <h2 className="font-semibold">1. Sensor at rest</h2>
+          <h2 className="font-semibold">{number} Sensor at rest</h2>
           <p>Put the device (or controller) down on a table and do not touch it for 3 seconds. This measures the small offset every motion sensor has.</p>
+          {denied && <PermissionHelp />}
           <button type="button" className="btn w-full sm:w-auto" disabled={busy} onClick={() => void measureBias()}>{busy ? "Measuring… keep still" : "Measure"}</button>
         </>
       )}
       {part === "card" && (
         <>
-          <h2 className="font-semibold">{props.motion ? "2." : "1."} Screen size</h2>
+          <h2 className="font-semibold">{number} Screen size</h2>
           <p>Hold a bank card, an ID card or a similar card of the standard size against the screen and change the size of the picture until it matches the card exactly.</p>
           <div aria-hidden className="rounded-lg border-2 border-slate-700 bg-slate-200" style={{ width: cardPx, height: (cardPx * ID1_CARD_HEIGHT_MM) / ID1_CARD_WIDTH_MM }} />
           <label className="block">Card size
@@ -154,9 +229,10 @@ export function CalibrationStep(props: { motion: boolean; needsDistance: boolean
       )}
       {part === "blind" && (
         <>
-          <h2 className="font-semibold">3. Viewing distance</h2>
-          <p>Sit as you will during the task. Close your left eye and look at the black square with your right eye. A red dot moves away; press Space the moment it disappears. ({blind.length} of 5)</p>
-          <div className="relative h-24 w-full overflow-hidden">
+          <h2 className="font-semibold">{number} Viewing distance</h2>
+          <p>Sit as you will during the task. Close your <strong>right</strong> eye and look at the black square with your <strong>left</strong> eye. A red dot moves to the left, away from the square; the moment it disappears, tap the grey area (or press Space). ({blind.length} of 5)</p>
+          <div className="relative h-24 w-full touch-none overflow-hidden rounded bg-slate-100" data-testid="blind-spot-area"
+            onPointerDown={() => stopRef.current?.()}>
             <div className="absolute right-4 top-8 h-6 w-6 bg-black" />
             {dotPx !== null && <div className="absolute top-9 h-4 w-4 rounded-full bg-red-600" style={{ right: 16 + 12 + dotPx }} />}
           </div>

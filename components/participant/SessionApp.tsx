@@ -12,10 +12,13 @@ import type { CalibrationRequest, DeviceRequest, SessionState } from "@/lib/runn
 import { errorMessage, postSession } from "./api";
 import { openSessionStore, type SessionStore } from "./store";
 import { createUploader, type Uploader, type UploadStatus } from "./uploader";
-import { createLiveProvider, type InputProvider } from "./inputs";
+import { usesMotion } from "@/lib/runner/inputPaths";
+import { controlHelp, type ControlContext } from "@/lib/runner/controls";
 import { TaskCanvas, type FinishedSequence, type TaskSetup } from "./TaskCanvas";
-import { BreakStep, ConditionQuestionnaire, ConsentStep, FinalQuestionnaire, InfoStep, InstructionsStep } from "./Steps";
-import { CalibrationStep, DeviceStep } from "./Checks";
+import { BreakStep, ConditionQuestionnaire, ConsentStep, FinalQuestionnaire, InfoStep, InstructionsStep, type TechniqueControls } from "./Steps";
+import { CalibrationStep, DeviceStep, PermissionHelp } from "./Checks";
+import { askMotionPermission } from "./motionPermission";
+import { enterTaskScreen, leaveTaskScreen, useWakeLock } from "./screen";
 
 const rank = (p: Progress): number => STAGES.indexOf(p.stage) * 100_000 + p.done;
 
@@ -40,26 +43,21 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
   const [returnUrl, setReturnUrl] = useState<string | null>(initial.returnTo?.complete ?? null);
   const [full, setFull] = useState(false);
   const [calibration, setCalibration] = useState(initial.calibration);
+  const [retry, setRetry] = useState(0);
+  // the upload queue's first report (until then its counts are not known)
+  const [uploadSeen, setUploadSeen] = useState(false);
   const storeRef = useRef<SessionStore | null>(null);
   const uploaderRef = useRef<Uploader | null>(null);
-  const providerRef = useRef<InputProvider | null>(null);
+  // after a reload or in a new tab, the task waits for a tap: motion permission (iOS) and fullscreen need a user gesture
+  const [gate, setGate] = useState<"closed" | "open" | "denied">("open");
+  const [ctx, setCtx] = useState<ControlContext>({ touchScreen: false, keyboard: true, controller: false });
 
   // merged and validated on the server, so this page carries no schema code
   const configs = st.configs;
   const techniques = useMemo(() => [...new Set(configs.map((c) => c.technique))], [configs]);
-  const motion = techniques.some((t) => t !== "mouse" && t !== "touch" && t !== "stick");
+  const motion = techniques.some(usesMotion);
   const plan = useMemo(() => (st.order && st.planSeed !== null ? planSequences(design, st.conditions, st.order, st.planSeed) : []), [design, st.conditions, st.order, st.planSeed]);
-
-  const getProvider = useCallback(async (): Promise<InputProvider> => {
-    if (providerRef.current) return providerRef.current;
-    let provider: InputProvider = createLiveProvider(window, true);
-    if (process.env.NEXT_PUBLIC_YAWPOINT_TEST_SOURCES === "1" && new URLSearchParams(window.location.search).get("source") === "simulated") {
-      const { createSimulatedProvider } = await import("./testSource");
-      provider = createSimulatedProvider(st.participantId);
-    }
-    providerRef.current = provider;
-    return provider;
-  }, [st.participantId]);
+  useWakeLock(progress.stage === "task" && !withdrawn);
 
   // open the local store, resume from whichever progress is further, start the upload queue
   useEffect(() => {
@@ -73,10 +71,16 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
       if (cancelled) return;
       storeRef.current = store;
       const local = await store.progress();
-      if (local && rank(local) > rank(progress)) setProgress(local);
-      uploaderRef.current = createUploader(token, store, setUpload);
+      const resumed = local && rank(local) > rank(progress) ? local : progress;
+      if (resumed !== progress) setProgress(resumed);
+      if (resumed.stage === "task") setGate("closed");
+      uploaderRef.current = createUploader(token, store, (u) => {
+        setUpload(u);
+        setUploadSeen(true);
+      });
       uploaderRef.current.kick();
-      if (motion && st.order) await getProvider();
+      const pads = typeof navigator.getGamepads === "function" ? Array.from(navigator.getGamepads()) : [];
+      setCtx({ touchScreen: navigator.maxTouchPoints > 0, keyboard: window.matchMedia("(pointer: fine)").matches, controller: pads.some((p) => p !== null) });
       setReady(true);
     })();
     return () => {
@@ -125,6 +129,27 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
   };
 
   const step = currentStep(progress, plan, design);
+  // each condition's controls, told once per distinct set (a study may mix techniques and activations)
+  const techniqueControls = useMemo<TechniqueControls[]>(() => {
+    const cards = new Map<string, TechniqueControls>();
+    configs.forEach((c, i) => {
+      const help = controlHelp(c.technique, c, design.task.selection, selectButtonFor(c), design.task.dwellMs, design.task.displayMode, ctx);
+      const key = `${c.technique}:${JSON.stringify(help)}`;
+      const card = cards.get(key) ?? { technique: c.technique, help, conditions: [] };
+      card.conditions.push(st.conditions[i] ?? "");
+      cards.set(key, card);
+    });
+    return [...cards.values()];
+  }, [configs, design.task, ctx, st.conditions]);
+  useEffect(() => {
+    if (progress.stage === "final" || progress.stage === "complete") leaveTaskScreen();
+  }, [progress.stage]);
+  const openGate = async (): Promise<void> => {
+    // permission first, inside the tap (iOS asks only from a gesture); then fullscreen
+    if (motion && (await askMotionPermission()) === "denied") return setGate("denied");
+    void enterTaskScreen();
+    setGate("open");
+  };
   const item = step.kind === "sequence" ? plan[step.index] : undefined;
   const setup = useMemo<TaskSetup | null>(() => {
     if (!item) return null;
@@ -156,7 +181,8 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
 
   // completion: wait until every sequence has left the browser, then ask for the code
   useEffect(() => {
-    if (progress.stage !== "complete" || code || withdrawn || upload.pending > 0 || upload.refused > 0 || !ready) return;
+    if (progress.stage !== "complete" || code || withdrawn || !uploadSeen || upload.pending > 0 || upload.refused > 0 || !ready) return;
+    setError(null);
     void (async () => {
       const res = await postSession(token, "complete", {}).catch(() => null);
       if (res?.ok) {
@@ -166,11 +192,11 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
       }
       else if (res) setError(await errorMessage(res));
     })();
-  }, [progress.stage, code, withdrawn, upload.pending, upload.refused, ready, token]);
+  }, [progress.stage, code, withdrawn, uploadSeen, upload.pending, upload.refused, ready, token, retry]);
 
   const withdraw = async (): Promise<void> => {
     uploaderRef.current?.stop();
-    providerRef.current?.stop();
+    leaveTaskScreen();
     await storeRef.current?.clear();
     if (await send("withdraw", {})) setWithdrawn(true);
     setWithdrawing(false);
@@ -218,7 +244,7 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
   let body: React.ReactNode;
   switch (step.kind) {
     case "info":
-      body = <InfoStep title={st.study.title} summary={st.study.summary} compensation={st.study.compensation} viewMode={design.task.displayMode === "view"} onNext={next} />;
+      body = <InfoStep title={st.study.title} summary={st.study.summary} compensation={st.study.compensation} viewMode={design.task.displayMode === "view"} techniques={techniques} onNext={next} />;
       break;
     case "consent":
       body = st.consent ? (
@@ -233,12 +259,12 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
       if (full && st.returnTo?.screened) body = <>{body}<p><a className="btn inline-block" href={st.returnTo.screened} data-testid="screened-return">Return to the recruitment site</a></p></>;
       break;
     case "device":
-      body = <DeviceStep techniques={techniques} minRateHz={design.minSampleRateHz} provider={getProvider} screenedReturn={st.returnTo?.screened ?? null} onDone={async (r: DeviceRequest) => {
+      body = <DeviceStep techniques={techniques} displayMode={design.task.displayMode} minRateHz={design.minSampleRateHz} screenedReturn={st.returnTo?.screened ?? null} onDone={async (r: DeviceRequest) => {
         if (await send("device", r)) if (r.verdict === "ok") next();
       }} />;
       break;
     case "calibration":
-      body = <CalibrationStep motion={motion} needsDistance={design.task.unit === "deg-visual"} provider={getProvider}
+      body = <CalibrationStep motion={motion} unit={design.task.unit}
         onSave={async (r: CalibrationRequest) => {
           if (!(await send("calibration", r))) throw new Error("not saved");
           if (r.kind === "bias") setCalibration((c) => ({ ...c, bias: { x: r.biasXDegPerS, y: r.biasYDegPerS, z: r.biasZDegPerS } }));
@@ -249,7 +275,8 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
       break;
     case "instructions":
       // the first task sequence starts: take a counterbalancing place and its condition order
-      body = <InstructionsStep selection={design.task.selection} displayMode={design.task.displayMode} pointer={!motion} onNext={async () => {
+      body = <InstructionsStep displayMode={design.task.displayMode} controls={techniqueControls} practice={design.task.practiceSequences > 0} onNext={async () => {
+        void enterTaskScreen(); // first, inside the tap: fullscreen needs a user gesture
         if (!(await send("start", {}))) return;
         await refresh();
         persist({ ...progress, stage: "task" });
@@ -260,10 +287,17 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
       break;
     case "sequence": {
       const done = plan.slice(0, step.index).filter((s) => !s.practice).length;
-      body = setup && item ? (
+      body = gate !== "open" ? (
+        <section className="space-y-3" data-testid="resume-gate">
+          <h1 className="text-xl font-semibold">Welcome back</h1>
+          <p>Your session continues with {item?.practice ? "a practice round" : `round ${done + 1} of ${measured}`}. Everything you did so far is kept.</p>
+          {gate === "denied" && <PermissionHelp />}
+          <button type="button" className="btn w-full sm:w-auto" onClick={() => void openGate()}>Tap to continue</button>
+        </section>
+      ) : setup && item ? (
         <div className="flex h-[calc(100vh-7rem)] flex-col">
           <p className="px-3 py-1 text-sm" data-testid="round-label">{item.practice ? "Practice round (does not count)" : `Round ${done + 1} of ${measured}`}</p>
-          <TaskCanvas key={step.index} setup={setup} provider={motion ? providerRef.current : null}
+          <TaskCanvas key={step.index} setup={setup}
             onMovement={(m) => void storeRef.current?.saveMovement(uploadKey(st.participantId, item), m)}
             onFinished={(f) => void onFinished(f)} />
         </div>
@@ -290,11 +324,23 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
           {returnUrl && <p><a className="btn inline-block" href={returnUrl} data-testid="complete-return">Return to the recruitment site</a></p>}
         </section>
       ) : (
-        <section className="space-y-3">
-          <h1 className="text-xl font-semibold">Sending your last data…</h1>
-          <p>Keep this page open. {upload.waiting ? "The connection is down; the data waits on this device and is sent when it returns." : ""}</p>
-          {error && <p className="field-error" role="alert">{error}</p>}
-        </section>
+        upload.refused > 0 ? (
+          <section className="space-y-3">
+            <h1 className="text-xl font-semibold">Some of your rounds could not be stored</h1>
+            <p>The server refused {upload.refused} round(s) from this device, so the session cannot be completed here. Please write to the research team (the contact is in the consent text) and say so; what you did is kept on this device.</p>
+          </section>
+        ) : (
+          <section className="space-y-3">
+            <h1 className="text-xl font-semibold">{upload.pending > 0 ? "Sending your last data…" : "Finishing…"}</h1>
+            <p>Keep this page open. {upload.waiting ? "The connection is down; the data waits on this device and is sent when it returns." : ""}</p>
+            {error && (
+              <>
+                <p className="field-error" role="alert">{error}</p>
+                <button type="button" className="btn-secondary" onClick={() => setRetry((n) => n + 1)}>Try again</button>
+              </>
+            )}
+          </section>
+        )
       );
       break;
   }

@@ -3,8 +3,23 @@ import { useEffect, useState } from "react";
 import { consentBlocks } from "@/lib/runner/consent";
 import { FINAL_CHOICES, MAX_COMMENT_CHARS } from "@/lib/runner/finalChoices";
 import type { StudyDesign } from "@/lib/study/design";
+import type { Technique } from "@/lib/motion/config";
+import type { ControlHelp } from "@/lib/runner/controls";
+import { usesMotion } from "@/lib/runner/inputPaths";
 
-export function InfoStep(props: { title: string; summary: string; compensation: string; viewMode: boolean; onNext: () => void }) {
+/** How the participant aims, in a few words, for the information page. */
+function aimingSentence(techniques: readonly Technique[]): string {
+  const motion = techniques.some(usesMotion);
+  const others: string[] = [];
+  if (techniques.some((t) => t === "stick" || t === "motion+stick")) others.push("a game controller's thumbstick");
+  if (techniques.includes("mouse")) others.push("a mouse");
+  if (techniques.some((t) => t === "touch" || t === "motion+touch")) others.push("your finger on the screen");
+  if (motion) return `You will aim by turning your device${others.length ? `, and with ${others.join(" and ")}` : ""}.`;
+  return `You will aim with ${others.join(" and ") || "the inputs this page asks for"}.`;
+}
+
+export function InfoStep(props: { title: string; summary: string; compensation: string; viewMode: boolean; techniques: readonly Technique[]; onNext: () => void }) {
+  const motion = props.techniques.some(usesMotion);
   return (
     <section className="space-y-3">
       <h1 className="text-xl font-semibold">{props.title}</h1>
@@ -13,10 +28,11 @@ export function InfoStep(props: { title: string; summary: string; compensation: 
       <div className="notice space-y-1" role="note">
         <h2 className="font-semibold">Before you start</h2>
         <ul className="list-disc pl-5">
-          <li>You will aim by turning your device. Repeated wrist rotation can strain: rest whenever you need to.</li>
+          <li>{aimingSentence(props.techniques)} {motion ? "Repeated wrist rotation can strain" : "Repeated hand movements can strain"}: rest whenever you need to.</li>
           {props.viewMode && <li>The view turns as you move. Turning views can cause motion sickness: stop at once if you feel unwell.</li>}
-          <li>Targets are highlighted. If bright, changing highlights affect you (photosensitivity), do not take part.</li>
+          <li>Targets are highlighted one at a time and nothing flashes, but the highlight moves often. If changing highlights affect you (photosensitivity), do not take part.</li>
           <li>You can stop at any time, without giving a reason, with “Stop and withdraw” at the top of every page.</li>
+          <li>The approving ethics board and the law where you live set the rules for this study; the consent text on the next page explains them.</li>
         </ul>
       </div>
       <button type="button" className="btn w-full sm:w-auto" onClick={props.onNext}>Continue</button>
@@ -68,18 +84,36 @@ export function ConsentStep(props: { body: string; requireName: boolean; busy: b
   );
 }
 
-export function InstructionsStep(props: { selection: StudyDesign["task"]["selection"]; displayMode: "cursor" | "view"; pointer: boolean; onNext: () => void }) {
-  const how = props.pointer
-    ? props.selection === "dwell" ? "Move onto the highlighted target and stay there until it is selected." : "Tap or click the highlighted target."
-    : { button: "Aim at the highlighted target by turning your device, then press the select button on your controller (or Space).", tap: "Aim at the highlighted target by turning your device, then tap anywhere on the task area.", click: "Aim at the highlighted target by turning your device, then click (or press Space).", dwell: "Aim at the highlighted target by turning your device and hold still on it until it is selected." }[props.selection];
+/** One technique's controls, as the instructions show them. */
+export interface TechniqueControls {
+  technique: Technique;
+  help: ControlHelp;
+  /** The conditions these controls belong to. */
+  conditions: string[];
+}
+
+const TECHNIQUE_TITLES: Record<Technique, string> = {
+  motion: "Turning the device", stick: "Thumbstick", "motion+stick": "Turning the device with the thumbstick", "motion+touch": "Turning the device with a touch drag",
+  mouse: "Mouse", touch: "Touch", "tilt-rate": "Tilting the device",
+};
+
+export function InstructionsStep(props: { displayMode: "cursor" | "view"; controls: readonly TechniqueControls[]; practice: boolean; onNext: () => void }) {
   return (
     <section className="space-y-3">
       <h1 className="text-xl font-semibold">How the task works</h1>
-      <p>{props.displayMode === "view" ? "The view turns as you move; the cross in the middle is where you aim." : "A small cross shows where you aim."}</p>
-      <p>{how} Be as quick as you can while staying accurate.</p>
-      <p>The first selection of each round only starts it. Each condition begins with a practice round that does not count.</p>
-      {!props.pointer && <p>To move your hand back without moving the aim, hold “Hold to pause motion” (or Shift). “Recenter” (or R) brings the aim back to the middle.</p>}
-      <button type="button" className="btn w-full sm:w-auto" onClick={props.onNext}>Start the practice</button>
+      <p>{props.displayMode === "view" ? "The view turns as you aim; the cross in the middle is where you aim." : "A small cross shows where you aim."} Select the highlighted target, as quickly as you can while staying accurate. The first selection of each round only starts it.</p>
+      {props.practice && <p>Each condition begins with a practice round that does not count.</p>}
+      {props.controls.map(({ technique, help, conditions }, i) => (
+        <div key={i} className="card space-y-1" data-testid={`controls-${technique}`}>
+          {props.controls.length > 1 && <h2 className="font-semibold">{TECHNIQUE_TITLES[technique]} <span className="font-normal">({conditions.join("; ")})</span></h2>}
+          <p>{help.aim}</p>
+          <p>To select, {help.select}.</p>
+          {help.aimHold && <p>{help.aimHold}</p>}
+          {help.pause && <p>{help.pause}</p>}
+          {help.recenter && <p>{help.recenter}</p>}
+        </div>
+      ))}
+      <button type="button" className="btn w-full sm:w-auto" onClick={props.onNext}>{props.practice ? "Start the practice" : "Start"}</button>
     </section>
   );
 }

@@ -10,6 +10,7 @@ import { lockActiveParticipant, refusalFor, withdrawnError, ACTIVE_STATUSES } fr
 import { assertCapRoom } from "@/lib/data/places";
 import { openWithDataKey, sealWithDataKey } from "@/lib/recruitment/dataKey";
 import { returnAddress } from "@/lib/recruitment/returnAddress";
+import { inputDetails, type InputDetails } from "@/lib/runner/inputDetails";
 import { studyDesignSchema, conditionConfig, conditionsOf, type StudyDesign } from "@/lib/study/design";
 import {
   deviceSummary, initialProgress, planSeedFor, planSession, progressSchema, qualityFlags, requiredStatementIds, uploadKey,
@@ -318,7 +319,12 @@ export async function recordConsent(db: Knex, ctx: SessionContext, input: Consen
  */
 export async function saveDeviceCheck(db: Knex, ctx: SessionContext, input: DeviceRequest): Promise<void> {
   assertConsented(ctx);
-  const device = { inputs: input.inputs, sampleRateHz: input.sampleRateHz, jitterSdMs: input.jitterSdMs, sourceKind: input.sourceKind, verdict: input.verdict };
+  const device = {
+    inputs: input.inputs, sampleRateHz: input.sampleRateHz, jitterSdMs: input.jitterSdMs, sourceKind: input.sourceKind, verdict: input.verdict,
+    // the input paths' details (inputs issue): which APIs, rates, input age, gravity sign
+    inputApis: input.inputApis ?? null, requestedRateHz: input.requestedRateHz ?? null, controllerRateHz: input.controllerRateHz ?? null,
+    inputAgeMedianMs: input.inputAgeMedianMs ?? null, inputAgeP95Ms: input.inputAgeP95Ms ?? null, gravitySign: input.gravitySign ?? null,
+  };
   const now = new Date();
   await db.transaction(async (trx) => {
     await lockActiveParticipant(trx, ctx.participant.id, { device: JSON.stringify(device) }, now);
@@ -436,6 +442,8 @@ export type MonitorSession = {
   biasDegPerS: number | null;
   errorRate: number | null;
   flags: string[];
+  /** How the input reached the page (paths, rate, raw pointer, input age): the latest sequence's, else the device check's. */
+  inputs: InputDetails | null;
 };
 
 /** Sessions of a study for the live monitor, newest activity first, with data-quality flags. */
@@ -446,6 +454,8 @@ export async function fetchMonitor(q: Queryable, studyId: number, now = new Date
   if (participants.length === 0) return [];
   const ids = participants.map((p) => p.id);
   const streams = await q("sequence_streams").whereIn("participant_id", ids).where({ practice: false }).groupBy("participant_id").select<{ participant_id: number; n: number }[]>("participant_id", q.raw("count(*) as n"));
+  const latestIds = q("sequence_streams").whereIn("participant_id", ids).groupBy("participant_id").select(q.raw("max(id) as id"));
+  const latestQuality = await q("sequence_streams").whereIn("id", latestIds).select<{ participant_id: number; quality: unknown }[]>("participant_id", "quality");
   const errors = await q("trials").whereIn("participant_id", ids).where({ practice: false }).groupBy("participant_id").select<{ participant_id: number; miss: number; n: number }[]>("participant_id", q.raw("sum(1 - hit) as miss"), q.raw("count(*) as n"));
   const biases = await q("calibrations").whereIn("participant_id", ids).where({ kind: "bias" }).orderBy("id", "asc").select<{ participant_id: number; result: unknown }[]>("participant_id", "result");
   const bias = new Map<number, number>();
@@ -474,6 +484,7 @@ export async function fetchMonitor(q: Queryable, studyId: number, now = new Date
       status: p.status, sampleRateHz: figures.sampleRateHz, minSampleRateHz: design.success ? design.data.minSampleRateHz : 0,
       biasDegPerS: figures.biasDegPerS, errorRate: figures.errorRate, lastActivityMs: p.last_activity_at ? p.last_activity_at.getTime() : null, nowMs: now.getTime(),
     });
-    return { ...figures, flags };
+    const latest = latestQuality.find((x) => x.participant_id === p.id);
+    return { ...figures, flags, inputs: inputDetails(jsonColumn(latest?.quality) as Record<string, unknown> | null, jsonColumn(p.device) as Record<string, unknown> | null) };
   });
 }

@@ -33,12 +33,27 @@ describe("replay CLI", { timeout: 30_000 }, () => {
     expect(r.stdout.split("\n")[0]).toBe("t_ms,x_px,y_px");
     expect(r.stdout.split("\n")[2]).toBe("100,-30,10");
   });
+  it("--start sets where the output starts; a finger's position (touch in cursor mode) puts the cursor there", () => {
+    const touch = file("t.csv", "t_ms,gyro_x,gyro_y,gyro_z,pointer_dx,pointer_dy,pointer_x,pointer_y,selected\n0,0,0,0,,,,,0\n10,0,0,0,,,150,90,1\n20,0,0,0,,,160,95,0\n30,0,0,0,4,,,,1\n");
+    const r = run(["--config", file("tc.json", '{ "technique": "touch", "displayMode": "cursor" }'), "--start", "100,50", touch]);
+    expect(r.status).toBe(0);
+    // direct touch: the cursor is where the finger is (the later drag delta of 4 px moves it on)
+    expect(r.stdout).toBe("t_ms,x_px,y_px\n0,100,50\n10,150,90\n20,160,95\n30,164,95\n");
+    const view = run(["--config", file("sv.json", '{ "gain": 6 }'), "--start=10,-2", samples]);
+    expect(view.stdout.split("\n")[2]).toBe("100,-8,-8");
+    expect(run(["--config", file("sv2.json", "{}"), "--start", "1", samples]).status).toBe(2);
+    // --bounds keeps the cursor in the task area, as the runner does: 30 deg/s for 0.1 s at 10 px/deg would reach x = -30
+    const kept = run(["--config", file("cb.json", '{ "displayMode": "cursor", "pixelsPerDegree": 10 }'), "--start", "10,10", "--bounds", "500,300", samples]);
+    expect(kept.stdout.split("\n")[2]).toBe("100,0,20");
+  });
   it("bad sample → exit 2, one line naming file, line and column, nothing on stdout", () => {
     const bad = file("b.csv", "t_ms,gyro_x,gyro_y,gyro_z\n0,0,0,0\n10,1,2,3\n20,0,x,0\n");
     const r = run(["--config", file("v2.json", "{}"), bad]);
     expect(r.status).toBe(2);
     expect(r.stdout).toBe("");
     expect(r.stderr).toBe(`${bad}:4:gyro_y: not a number\n`);
+    const mark = file("m.csv", "t_ms,gyro_x,gyro_y,gyro_z,selected\n0,0,0,0,0\n10,0,0,0,2\n");
+    expect(run(["--config", file("v3.json", "{}"), mark]).stderr).toBe(`${mark}:3:selected: not 0 or 1\n`);
   });
   it("bad configuration → exit 2 naming the field and rule", () => {
     const cfg = file("bad.json", '{\n  "frame": "device",\n  "gain": -2\n}\n');

@@ -16,13 +16,38 @@ export const movementSchema = z.strictObject({
   clutched: flag,
 });
 
-/** Per-sequence data-quality figures, measured by the runner. */
+/** The browser input paths a sequence can use (what the stream came through). */
+export const inputApis = ["generic-sensor", "device-motion", "gamepad", "pointer-lock", "pointer-move", "touch-drag", "touch-direct"] as const;
+export type InputApi = (typeof inputApis)[number];
+
+const ms = z.number().finite().min(0).max(60_000);
+
+/**
+ * Per-sequence data-quality figures, measured by the runner. The fields after `frameP99Ms` came
+ * later: optional, so a page cached before them can still send what it holds.
+ */
 export const sequenceQualitySchema = z.strictObject({
+  /** Samples per second of the stream (the technique's clock: gyroscope, controller poll or pointer events). */
   sampleRateHz: z.number().finite().min(0),
   jitterSdMs: z.number().finite().min(0),
   gaps: z.number().int().min(0),
   droppedSamples: z.number().int().min(0),
   frameP99Ms: z.number().finite().min(0).nullable(),
+  /** Which browser input paths fed the stream. */
+  inputApis: z.array(z.enum(inputApis)).max(inputApis.length).optional(),
+  /** The sensor frequency asked of the Generic Sensor API (Hz); null for other paths. */
+  requestedRateHz: z.number().finite().min(0).max(5000).nullable().optional(),
+  /** Mouse: whether Pointer Lock gave raw (unadjusted) movement; null when no pointer lock was used. */
+  pointerLockRaw: z.boolean().nullable().optional(),
+  /** Input age at drawing: from each input event's time stamp to the frame that first drew it, median and 95th percentile (ms). */
+  inputAgeMedianMs: ms.nullable().optional(),
+  inputAgeP95Ms: ms.nullable().optional(),
+  /** The task area (CSS px): cursor positions are kept inside it, which a replay of the stream must do too. */
+  canvasWidthPx: z.number().finite().min(0).max(100_000).optional(),
+  canvasHeightPx: z.number().finite().min(0).max(100_000).optional(),
+  /** Where the output started (cursor: canvas px; view: yaw, pitch deg): a replay adds its output to this (replay --start). */
+  startX: z.number().finite().optional(),
+  startY: z.number().finite().optional(),
 });
 
 /**

@@ -10,11 +10,16 @@ export {
 export { projectDirection } from "./perspective";
 export { createSequenceRecorder, type SequenceRecorder, type RecordedMovement, type SelectionCause } from "./sequenceRecorder";
 export { consentBlocks, requiredStatementIds, consentCopyText, DEFAULT_STATEMENT, type ConsentBlock } from "./consent";
-export { sequenceBatchSchema, movementSchema, sequenceQualitySchema, type SequenceBatch, type SequenceQuality, type Movement } from "./batch";
+export { sequenceBatchSchema, movementSchema, sequenceQualitySchema, inputApis, type InputApi, type SequenceBatch, type SequenceQuality, type Movement } from "./batch";
 export { batchProblems, plannedLayout, MIN_MEDIAN_MOVEMENT_MS, type Problem } from "./plausibility";
 export { streamProblems, MAX_SAMPLE_RATE_HZ, type StreamFacts } from "./streamPlausibility";
 export { answerProblems } from "./questionnaire";
 export { FINAL_CHOICES, MAX_COMMENT_CHARS } from "./finalChoices";
+export { inputPathsFor, usesMotion, type InputPaths } from "./inputPaths";
+export { controlMasks, controlSet, controlHelp, controllerButtonName, CONTROL_KEYS, type ControlMasks, type ControlSet, type ControlHelp, type ControlContext } from "./controls";
+export { layoutFit, FIT_MARGIN_PX, type FitVerdict } from "./fit";
+export { createInputAgeLog, type InputAgeLog, type InputAgeSummary } from "./inputAge";
+export { inputDetails, describeInputDetails, type InputDetails } from "./inputDetails";
 export { deviceVerdict, type DeviceInputs, type DeviceVerdict } from "./deviceCheck";
 export { qualityFlags, QUALITY_LIMITS, type SessionFigures } from "./qualityFlags";
 export { retryDelayMs, uploadOutcome, type UploadOutcome } from "./upload";

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import type { TransferConfig } from "@/lib/motion/config";
 import { STAGES } from "./progress";
+import { inputApis } from "./batch";
 
 /** Bodies of the session API (app/api/session/[token]/…), shared by the runner and the server. */
 
@@ -21,6 +22,21 @@ export const deviceRequestSchema = z.strictObject({
   jitterSdMs: z.number().finite().min(0).max(10_000).nullable(),
   sourceKind: z.enum(["device-motion", "generic-sensor", "gamepad", "pointer-lock", "pointer-drag", "scripted", "hid", "none"]),
   verdict: z.enum(["ok", "refused"]),
+  /** The input paths the check found for the study's techniques (optional: pages before this field send none). */
+  inputApis: z.array(z.enum(inputApis)).max(inputApis.length).optional(),
+  /** Generic Sensor: the frequency asked (Hz). */
+  requestedRateHz: z.number().finite().min(0).max(5000).nullable().optional(),
+  /** New controller reports per second as the page sees them (polled once per animation frame, so at most the frame rate), when the study uses a controller. */
+  controllerRateHz: z.number().finite().min(0).max(5000).nullable().optional(),
+  /** Input age at drawing during the check (ms): median and 95th percentile. */
+  inputAgeMedianMs: z.number().finite().min(0).max(60_000).nullable().optional(),
+  inputAgeP95Ms: z.number().finite().min(0).max(60_000).nullable().optional(),
+  /**
+   * The sign of the accelerometer's gravity: "normal" (lying flat, screen up, z reads about
+   * +9.8 m/s², W3C), "inverted" (the source reports it negated: the runner flips it and says so),
+   * or null when not checked (no motion technique).
+   */
+  gravitySign: z.enum(["normal", "inverted"]).nullable().optional(),
 });
 
 export const calibrationRequestSchema = z.discriminatedUnion("kind", [

@@ -113,6 +113,11 @@ test("try this level: the real task with a mouse on this computer, and on a phon
   await expect(canvas).toBeVisible();
   const area = (await canvas.boundingBox())!;
   const ring = ringTargets(9, 200 / Math.cos(Math.PI / 18)); // ISO 9241-411: nominal A is the chord, D = A / cos(π/2n)
+  // the mouse runs through Pointer Lock: a first click on the start target takes the pointer, then its movements move the cursor from there
+  const first = ring[ringVisitingOrder(9)[0]!]!;
+  await tryPage.mouse.move(area.x + area.width / 2 + first.x, area.y + area.height / 2 + first.y);
+  await tryPage.mouse.click(area.x + area.width / 2 + first.x, area.y + area.height / 2 + first.y);
+  await expect.poll(() => tryPage.evaluate(() => document.pointerLockElement !== null)).toBe(true);
   for (const k of ringVisitingOrder(9)) {
     await tryPage.mouse.move(area.x + area.width / 2 + ring[k]!.x, area.y + area.height / 2 + ring[k]!.y, { steps: 4 });
     await tryPage.mouse.down();

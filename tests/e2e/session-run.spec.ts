@@ -8,11 +8,14 @@ import { readZip } from "../fixtures/readZip";
 import { demo, mailTo, signInWithForm } from "./helpers";
 import { createSessionStudy, fixtureDb, motionDesign, type SessionFixture } from "./fixtures/session-study";
 import { answerStep, completionCode, passChecks } from "./fixtures/session-flow";
+import { SensorWorld } from "./fixtures/inputs/sensorWorld";
+import { PHONE, playSimulated } from "./fixtures/inputs/inputStudy";
 
-// A whole session in Chromium, driven by the simulated participant (test builds only:
-// NEXT_PUBLIC_YAWPOINT_TEST_SOURCES=1 and ?source=simulated), with a reload mid-block and the
-// network dropped for a while. Then the database must hold every movement exactly once, and the
-// analysis must recover the simulated participant's throughput within its sampling error.
+// A whole session on a phone-sized touch screen, through Chromium's own sensor emulation (CDP
+// Emulation.setSensorOverride*) fed with the simulated participant at 60 Hz, selecting with the
+// on-screen Select button (CDP touch), with a reload mid-block ("tap to continue" asks again) and
+// the network dropped for a while. Then the database must hold every movement exactly once, the
+// device check the emulated rate, the calibration the injected bias, and the analysis must run.
 
 /** JSON columns: text or already parsed, depending on the driver's column type. */
 const json = (v: unknown): Record<string, number> => (typeof v === "string" ? JSON.parse(v) : v) as Record<string, number>;
@@ -21,6 +24,7 @@ let db: Knex;
 let fx: SessionFixture;
 // the second test reads what the first one's session recorded
 test.describe.configure({ mode: "serial" });
+test.use({ viewport: { width: 412, height: 915 }, hasTouch: true, isMobile: true, deviceScaleFactor: 2 });
 
 test.beforeAll(async () => {
   db = fixtureDb();
@@ -30,41 +34,61 @@ test.afterAll(async () => {
   await db.destroy();
 });
 
-/** Simulated person (components/participant/testSource.ts): MT = 200 + 150·log2(A/W + 1) ms, endpoint SD = W/4.133. */
-const INTERCEPT_MS = 200, SLOPE_MS_PER_BIT = 150;
-
-test("a whole session with the simulated participant: reload mid-block, offline for a while, every movement once, throughput recovered", async ({ page, context }) => {
-  test.setTimeout(240_000);
+test("a whole session on a phone through the emulated sensors: reload mid-block, offline for a while, every movement once", async ({ page, context }) => {
+  test.setTimeout(300_000);
   const p = fx.participants[0]!;
-  await page.goto(`/s/${p.token}?source=simulated`);
+  const world = new SensorWorld(await context.newCDPSession(page), { rateHz: PHONE.rateHz, biasDegPerS: PHONE.gyroBiasDegPerS, noiseSdDegPerS: PHONE.gyroNoiseSdDegPerS, seed: 31 });
+  await world.enable();
+  world.still("flat");
+  world.start();
+  await page.goto(`/s/${p.token}`);
   await passChecks(page, { typedName: "Alex Example", email: "alex@participant.example", motion: true });
 
   // consent copy by e-mail, with the version's hash
   await expect.poll(async () => (await mailTo("alex@participant.example")).length, { timeout: 10_000 }).toBeGreaterThan(0);
   expect((await mailTo("alex@participant.example")).at(-1)!.text).toContain(fx.consentHash);
 
-  let reloaded = false, wentOffline = false;
-  const deadline = Date.now() + 200_000;
+  const config = (gain: number) => ({ technique: "motion", displayMode: "cursor", pixelsPerDegree: 10, frame: "device", deviceHorizontalAxis: "screen-up", gain });
+  let reloaded = false, wentOffline = false, playedKey = "", seed = 1;
+  const deadline = Date.now() + 260_000;
+  const canvas = page.getByTestId("task-canvas");
   while (Date.now() < deadline) {
     if (await page.getByTestId("completion-code").isVisible()) break;
-    const label = (await page.getByTestId("round-label").textContent({ timeout: 500 }).catch(() => null)) ?? "";
-    const trial = Number((await page.getByTestId("task-canvas").getAttribute("data-trial", { timeout: 500 }).catch(() => null)) ?? "0");
-    if (!reloaded && label.startsWith("Round 1 of") && trial >= 5) {
-      await page.reload(); // mid-block: the unfinished round starts again, nothing is stored twice
-      reloaded = true;
+    if (await page.getByRole("button", { name: "Tap to continue" }).isVisible()) {
+      await page.getByRole("button", { name: "Tap to continue" }).tap();
       continue;
     }
-    if (!wentOffline && label.startsWith("Round 2 of") && trial >= 3) {
-      await context.setOffline(true);
-      wentOffline = true;
-      // the round finishes offline; its data waits on the device
-      await expect(page.getByTestId("upload-status")).toContainText("kept on this device", { timeout: 30_000 });
-      await page.waitForTimeout(3000);
-      await context.setOffline(false);
+    if (await canvas.isVisible()) {
+      const label = (await page.getByTestId("round-label").textContent({ timeout: 500 }).catch(() => null)) ?? "";
+      const trial = Number((await canvas.getAttribute("data-trial", { timeout: 500 }).catch(() => null)) ?? "0");
+      const key = `${label}|${(await canvas.getAttribute("data-targets", { timeout: 500 }).catch(() => null)) ?? ""}`;
+      if (key !== playedKey && trial === 0) {
+        playedKey = key;
+        // the simulated person plans for gain 2 in both conditions (at gain 3 they overshoot, as a person might at first)
+        void playSimulated(page, world, config(2), { amplitude: 300, width: 45, seed: seed++, select: () => page.getByTestId("control-select").tap({ timeout: 5000 }).catch(() => undefined) });
+      }
+      if (!reloaded && label.startsWith("Round 1 of") && trial >= 5) {
+        world.still("flat");
+        await page.reload(); // mid-block: the unfinished round starts again, after a tap; nothing is stored twice
+        reloaded = true;
+        playedKey = "";
+        continue;
+      }
+      if (!wentOffline && label.startsWith("Round 2 of") && trial >= 3) {
+        await context.setOffline(true);
+        wentOffline = true;
+        // the round finishes offline; its data waits on the device
+        await expect(page.getByTestId("upload-status")).toContainText("kept on this device", { timeout: 60_000 });
+        await page.waitForTimeout(3000);
+        await context.setOffline(false);
+        continue;
+      }
+      await page.waitForTimeout(300);
       continue;
     }
     if (!(await answerStep(page))) await page.waitForTimeout(300);
   }
+  await world.stop();
   expect(reloaded && wentOffline, "the reload and the offline spell both happened").toBe(true);
   expect(await completionCode(page)).toBe(p.completionCode);
 
@@ -80,10 +104,16 @@ test("a whole session with the simulated participant: reload mid-block, offline 
   for (const q of quality as { quality: string }[]) expect(json(q.quality).droppedSamples).toBe(0);
   const stored = await db("participants").where({ id: p.id }).first<{ status: string; device: string }>();
   expect(stored?.status).toBe("completed");
-  expect(json(stored!.device).sampleRateHz).toBeGreaterThan(50); // the phone profile reports ≈ 60 Hz
+  // the device check measured the emulated 60 Hz (within 10 %)
+  expect(Math.abs(json(stored!.device).sampleRateHz! - PHONE.rateHz) / PHONE.rateHz).toBeLessThanOrEqual(0.1);
+  // the calibration found the injected bias (W3C rotationRate, deg/s) within 0.15 deg/s
+  const bias = json((await db("calibrations").where({ participant_id: p.id, kind: "bias" }).first<{ result: string }>("result"))!.result);
+  expect(Math.abs(bias.biasXDegPerS! - PHONE.gyroBiasDegPerS.x)).toBeLessThanOrEqual(0.15);
+  expect(Math.abs(bias.biasYDegPerS! - PHONE.gyroBiasDegPerS.y)).toBeLessThanOrEqual(0.15);
+  expect(Math.abs(bias.biasZDegPerS! - PHONE.gyroBiasDegPerS.z)).toBeLessThanOrEqual(0.15);
   expect(await db("questionnaire_answers").where({ participant_id: p.id }).count<{ n: number }[]>({ n: "*" })).toEqual([{ n: 2 + 3 }]);
 
-  // analysis (ISO 9241-411 effective throughput, mean of means) recovers the simulated person
+  // the analysis (ISO 9241-411 effective throughput, mean of means) runs on what was stored
   type Stored = { practice: number; condition: string; block: number; sequence: number; trial: number; amplitude: number; width: number; time_ms: number; hit: number; from_x: number; from_y: number; to_x: number; to_y: number; start_x: number; start_y: number; end_x: number; end_y: number };
   const rows: TrialRow[] = (trials as Stored[]).filter((t) => !t.practice).map((t) => ({
     participant: p.code, condition: t.condition, block: t.block, sequence: t.sequence, trial: t.trial, amplitude: t.amplitude, width: t.width,
@@ -91,26 +121,8 @@ test("a whole session with the simulated participant: reload mid-block, offline 
     startX: t.start_x, startY: t.start_y, endX: t.end_x, endY: t.end_y,
   }));
   const result = analyzeTrials(rows, { start: "actual", exclude: "none" });
-  const n = 13;
-  // Expected TP per sequence = ID/MT with ID = log2(A/W + 1) (Shannon, MacKenzie 1992) and the
-  // simulated MT; its sampling error comes from estimating SDx from n endpoints: SE(SDx)/SDx ≈
-  // 1/√(2(n−1)) (normal-theory SE of a sample SD, from memory), which moves IDe by
-  // (Ae/(Ae+We))/ln 2 bits per unit of ln We, plus 5 % timing noise per movement.
-  for (const cell of result.cells) {
-    const seqs = result.sequences.filter((s) => s.condition === cell.condition);
-    expect(seqs).toHaveLength(2);
-    const expected = seqs.map((s) => {
-      const id = Math.log2(s.amplitude / s.width + 1);
-      return id / ((INTERCEPT_MS + SLOPE_MS_PER_BIT * id) / 1000);
-    });
-    const meanExpected = expected.reduce((a, b) => a + b, 0) / expected.length;
-    const se = Math.sqrt(seqs.reduce((acc, s, i) => {
-      const ideSe = (s.amplitude / (s.amplitude + s.width) / Math.LN2) / Math.sqrt(2 * (n - 1));
-      const tpSe = Math.hypot(ideSe / (s.mt / 1000), (expected[i]! * 0.05) / Math.sqrt(n));
-      return acc + tpSe * tpSe;
-    }, 0)) / seqs.length;
-    expect(Math.abs(cell.tp - meanExpected), `${cell.condition}: TP ${cell.tp} vs expected ${meanExpected} ± ${se}`).toBeLessThan(3 * se);
-  }
+  expect(result.cells).toHaveLength(2);
+  for (const cell of result.cells) expect(cell.tp).toBeGreaterThan(0);
 });
 
 test("the study the session filled: its owner sees the results, exports the archive and downloads the consent register", async ({ page }) => {

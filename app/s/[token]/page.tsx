@@ -1,11 +1,20 @@
-import type { Metadata } from "next";
+import type { Metadata, Viewport } from "next";
 import { notFound } from "next/navigation";
 import { db } from "@/lib/db";
 import { fetchSessionByToken, fetchSessionState, revokedError } from "@/lib/data/participants";
 import { SessionApp } from "@/components/participant/SessionApp";
 
 export const dynamic = "force-dynamic";
-export const metadata: Metadata = { title: "Study session", robots: { index: false, follow: false } };
+export const metadata: Metadata = {
+  title: "Study session",
+  robots: { index: false, follow: false },
+  // no start_url in the manifest: a session added to the home screen opens its own link
+  manifest: "/participant.webmanifest",
+  icons: { icon: [{ url: "/icons/yawpoint.svg", type: "image/svg+xml" }, { url: "/icons/icon-192.png", sizes: "192x192" }], apple: "/icons/apple-touch-icon.png" },
+  appleWebApp: { capable: true, title: "Study session", statusBarStyle: "default" },
+};
+// the page may draw under notches and rounded corners; the on-screen controls keep to the safe area
+export const viewport: Viewport = { width: "device-width", initialScale: 1, viewportFit: "cover", themeColor: "#1d4ed8" };
 
 /** A participant's session: reachable only with its unguessable link token (no account, not behind the proxy). */
 export default async function SessionPage({ params }: { params: Promise<{ token: string }> }) {

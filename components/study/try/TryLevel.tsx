@@ -1,8 +1,9 @@
 "use client";
 
-import { useEffect, useMemo, useRef, useState } from "react";
+import { useEffect, useMemo, useState } from "react";
 import { TaskCanvas, type TaskSetup } from "@/components/participant/TaskCanvas";
-import { createLiveProvider, type InputProvider } from "@/components/participant/inputs";
+import { askMotionPermission } from "@/components/participant/motionPermission";
+import { usesMotion } from "@/lib/runner/inputPaths";
 import { selectButtonFor } from "@/lib/runner/selectButton";
 import type { TrySetup } from "@/lib/study/trySetup";
 import { createDisplacementMeter, type MeterReading } from "./displacementMeter";
@@ -10,20 +11,10 @@ import { createDisplacementMeter, type MeterReading } from "./displacementMeter"
 /** The browser's nominal CSS scale (96 px per inch) and a desk distance: sizes for a try only; participants calibrate their own. */
 const NOMINAL = { pixelsPerMm: 96 / 25.4, viewingDistanceMm: 550 };
 
-/** Wraps the live input so the meter sees every sample the task sees. */
-function metered(inner: InputProvider, meter: ReturnType<typeof createDisplacementMeter>): InputProvider {
-  return {
-    kind: inner.kind,
-    start: (sink, request) => inner.start((s) => { meter.push(s); sink(s); }, request),
-    stop: () => inner.stop(),
-    get delivered() { return inner.delivered; },
-  };
-}
-
 /** One level in the real runner's task, with a live reading of what the input did. Nothing is recorded. */
 export function TryLevel({ setup, expiresAt }: { setup: TrySetup; expiresAt: string }) {
   const { config, task } = setup;
-  const motion = config.technique !== "mouse" && config.technique !== "touch";
+  const motion = usesMotion(config.technique);
   const pairs = useMemo(() => task.amplitudes.flatMap((a) => task.widths.map((w) => ({ a, w }))), [task]);
   const [pair, setPair] = useState(0);
   const [run, setRun] = useState(0);
@@ -32,24 +23,18 @@ export function TryLevel({ setup, expiresAt }: { setup: TrySetup; expiresAt: str
   const [reading, setReading] = useState<MeterReading>({ deviceDeg: 0, dx: 0, dy: 0 });
   const [moves, setMoves] = useState({ n: 0, hits: 0 });
   const meter = useMemo(() => createDisplacementMeter({ ...config, displayMode: task.displayMode }), [config, task.displayMode]);
-  const providerRef = useRef<InputProvider | null>(null);
 
   useEffect(() => {
     if (!started) return;
     const h = setInterval(() => setReading(meter.read()), 100);
     return () => clearInterval(h);
   }, [started, meter]);
-  useEffect(() => () => providerRef.current?.stop(), []);
 
   const start = async () => {
     setError(null);
     try {
-      if (motion && !providerRef.current) {
-        const live = metered(createLiveProvider(window, true), meter);
-        await live.start(() => undefined); // asks for motion permission inside this tap (iOS), then the task restarts it
-        live.stop();
-        providerRef.current = live;
-      }
+      // asks for motion permission inside this tap (iOS); the task then reads the sensors itself
+      if (motion && (await askMotionPermission()) === "denied") throw new Error("Motion sensors are not allowed in this browser: allow them in its site settings and start again.");
       meter.reset();
       setStarted(true);
       setRun((r) => r + 1);
@@ -98,7 +83,7 @@ export function TryLevel({ setup, expiresAt }: { setup: TrySetup; expiresAt: str
       </p>
       {started && (
         <div className="h-[70vh] w-full overflow-hidden rounded border border-slate-300">
-          <TaskCanvas key={`${run}-${pair}`} setup={taskSetup} provider={motion ? providerRef.current : null} onMovement={(m) => setMoves((x) => ({ n: x.n + 1, hits: x.hits + m.hit }))} onFinished={() => setRun((r) => r + 1)} />
+          <TaskCanvas key={`${run}-${pair}`} setup={taskSetup} onSample={(s) => meter.push(s)} onMovement={(m) => setMoves((x) => ({ n: x.n + 1, hits: x.hits + m.hit }))} onFinished={() => setRun((r) => r + 1)} />
         </div>
       )}
     </main>

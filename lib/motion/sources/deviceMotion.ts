@@ -53,7 +53,7 @@ export function createDeviceMotionSource(win: Window, options: { askPermission?:
       }
       listener = (e: DeviceMotionEvent) => {
         const r = e.rotationRate, a = e.accelerationIncludingGravity;
-        const f: SampleFragment = { tMs: e.timeStamp, screenAngleDeg: currentScreenAngle(win) };
+        const f: SampleFragment = { tMs: e.timeStamp, inputMs: e.timeStamp, screenAngleDeg: currentScreenAngle(win) };
         if (r && r.alpha !== null && r.beta !== null && r.gamma !== null) f.gyro = { x: r.alpha, y: r.beta, z: r.gamma };
         if (a && a.x !== null && a.y !== null && a.z !== null) f.accel = { x: a.x, y: a.y, z: a.z };
         sink(f);

@@ -1,7 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { createMotionEngine } from "../engine";
 import { createDeviceMotionSource } from "./deviceMotion";
-import { gamepadButtonMask } from "./gamepad";
+import { createGamepadSource, gamepadButtonMask } from "./gamepad";
+import { createGenericSensorSource } from "./genericSensor";
 import { createSampleMixer } from "./mixer";
 import { createScriptedSource } from "./scripted";
 import type { SampleFragment } from "./types";
@@ -27,7 +28,7 @@ describe("DeviceMotion adapter (W3C Device Orientation and Motion)", () => {
     const src = createDeviceMotionSource(w.win, { askPermission: false });
     await src.start((f) => got.push(f));
     w.fire("devicemotion", { timeStamp: 123.4, interval: 16, rotationRate: { alpha: 1, beta: 2, gamma: 3 }, accelerationIncludingGravity: { x: 0.1, y: 9.7, z: 0.2 } });
-    expect(got[0]).toEqual({ tMs: 123.4, screenAngleDeg: 90, gyro: { x: 1, y: 2, z: 3 }, accel: { x: 0.1, y: 9.7, z: 0.2 } });
+    expect(got[0]).toEqual({ tMs: 123.4, inputMs: 123.4, screenAngleDeg: 90, gyro: { x: 1, y: 2, z: 3 }, accel: { x: 0.1, y: 9.7, z: 0.2 } });
     src.stop();
     expect(w.has("devicemotion")).toBe(false);
   });
@@ -68,5 +69,98 @@ describe("mixer and scripted source", () => {
     });
     expect(b).toBeCloseTo(a, 12);
     expect(a).not.toBe(0);
+  });
+});
+
+describe("mixer clocks (W3C Gamepad: polled, no events)", () => {
+  it("the stick clock makes a sample on every controller poll, so a held stick keeps its rate", () => {
+    const m = createSampleMixer("stick");
+    expect(m.accept({ tMs: 0, controls: 1 })).toBeNull();
+    const a = m.accept({ tMs: 16.7, stick: { x: 0.8, y: 0 }, buttons: 4, inputMs: 10 })!;
+    const b = m.accept({ tMs: 33.4, stick: { x: 0.8, y: 0 }, buttons: 4 })!;
+    expect([a.tMs, a.stickX, a.buttons, b.tMs, b.stickX]).toEqual([16.7, 0.8, 5, 33.4, 0.8]);
+    expect(m.lastInputMs).toBeNaN(); // the second poll brought nothing new
+  });
+  it("controls and the controller's buttons are one bitmask; a pulse lasts one sample; times never go backwards", () => {
+    const m = createSampleMixer("motion");
+    m.accept({ tMs: 1, buttons: 8 });
+    m.accept({ tMs: 2, controls: 1, pulse: 4 });
+    const s1 = m.accept({ tMs: 10, gyro: { x: 0, y: 0, z: 0 }, inputMs: 10 })!;
+    const s2 = m.accept({ tMs: 9, gyro: { x: 0, y: 0, z: 0 } })!;
+    expect([s1.buttons, s2.buttons, s2.tMs]).toEqual([13, 9, 10]);
+  });
+  it("the pointer clock makes a sample per pointer event, with the finger's position only on its own sample", () => {
+    const m = createSampleMixer("pointer");
+    const s = m.accept({ tMs: 5, position: { x: 120, y: 40 }, inputMs: 5 })!;
+    expect([s.pointerX, s.pointerY]).toEqual([120, 40]);
+    expect(m.accept({ tMs: 6, pointer: { dx: 1, dy: 0 } })!.pointerX).toBeUndefined();
+  });
+});
+
+describe("Gamepad source (W3C Gamepad standard mapping: axes 2/3 the right stick, y down)", () => {
+  it("reads the right stick and the buttons on each poll; the input time is the pad's timestamp when it changed", async () => {
+    let stamp = 100;
+    const pad = { connected: true, mapping: "standard", timestamp: 0, axes: [0, 0, 0.5, -0.25], buttons: [{ pressed: false }, { pressed: true }] };
+    const win = { navigator: { getGamepads: () => [null, { ...pad, timestamp: stamp }] }, requestAnimationFrame: () => 0, cancelAnimationFrame: () => undefined, performance: { now: () => 0 } } as unknown as Window;
+    const got: SampleFragment[] = [];
+    const src = createGamepadSource(win, { stick: "right" });
+    await src.start((f) => got.push(f));
+    src.poll(116);
+    src.poll(132);
+    stamp = 140;
+    src.poll(148);
+    expect(got.map((f) => [f.tMs, f.stick?.x, f.stick?.y, f.buttons, f.inputMs])).toEqual([[116, 0.5, -0.25, 2, 100], [132, 0.5, -0.25, 2, undefined], [148, 0.5, -0.25, 2, 140]]);
+  });
+});
+
+describe("Generic Sensor source (W3C Gyroscope: rad/s)", () => {
+  /** A stand-in sensor class: the test sets a reading and fires "reading". */
+  function fakeSensors() {
+    const made: Array<EventTarget & { x: number | null; y: number | null; z: number | null; timestamp: number | null; fire(t: number, v: [number, number, number]): void }> = [];
+    class FakeSensor extends EventTarget {
+      x: number | null = null; y: number | null = null; z: number | null = null; timestamp: number | null = null;
+      constructor() {
+        super();
+        made.push(this);
+      }
+      start() {
+        queueMicrotask(() => this.dispatchEvent(new Event("activate")));
+      }
+      stop() {}
+      fire(t: number, v: [number, number, number]) {
+        [this.x, this.y, this.z] = v;
+        this.timestamp = t;
+        this.dispatchEvent(new Event("reading"));
+      }
+    }
+    return { made, win: { Gyroscope: FakeSensor, Accelerometer: FakeSensor, screen: { orientation: { angle: 0 } }, performance: { now: () => 0 } } as unknown as Window };
+  }
+  it("converts rad/s to deg/s and joins the latest accelerometer reading", async () => {
+    const { made, win } = fakeSensors();
+    const got: SampleFragment[] = [];
+    const src = createGenericSensorSource(win, 240);
+    await src.start((f) => got.push(f));
+    made[1]!.fire(0, [0, 0, 9.8]);
+    made[0]!.fire(10, [Math.PI / 180, 0, -Math.PI / 90]);
+    expect(got[0]!.gyro!.x).toBeCloseTo(1, 12);
+    expect(got[0]!.gyro!.z).toBeCloseTo(-2, 12);
+    expect(got[0]!.accel).toEqual({ x: 0, y: 0, z: 9.8 });
+  });
+  it("fills a quiet stretch (no reading while the value stays within the change threshold) with the held reading at 60 Hz", async () => {
+    const { made, win } = fakeSensors();
+    const got: SampleFragment[] = [];
+    const src = createGenericSensorSource(win, 240);
+    await src.start((f) => got.push(f));
+    const deg = Math.PI / 180;
+    made[0]!.fire(0, [30 * deg, 0, 0]);
+    src.poll(40); // 40 ms without a reading: perhaps only late; nothing yet
+    expect(got).toHaveLength(1);
+    src.poll(70); // a quiet of more than three periods: held readings up to two periods before now
+    expect(got.map((f) => Math.round(f.tMs * 10) / 10)).toEqual([0, 16.7, 33.3]);
+    made[0]!.fire(100, [0, 0, 0]); // the next reading fills the rest of the gap by its own time stamp
+    expect(got.map((f) => Math.round(f.tMs * 10) / 10)).toEqual([0, 16.7, 33.3, 50, 66.7, 83.3, 100]);
+    expect(got.slice(0, 6).every((f) => Math.abs(f.gyro!.x - 30) < 1e-9)).toBe(true);
+    expect(got.filter((f) => f.inputMs !== undefined)).toHaveLength(2); // only real readings are new input
+    expect(src.readings).toBe(2);
   });
 });

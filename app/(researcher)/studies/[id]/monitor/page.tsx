@@ -4,6 +4,7 @@ import { db } from "@/lib/db";
 import { AppError } from "@/lib/errors";
 import { fetchMonitor } from "@/lib/data/participants";
 import { fetchParticipantList } from "@/lib/data/participantList";
+import { describeInputDetails } from "@/lib/runner/inputDetails";
 import { getCurrentUser } from "@/lib/session";
 import { AutoRefresh } from "./AutoRefresh";
 
@@ -34,7 +35,7 @@ export default async function MonitorPage({ params }: { params: Promise<{ id: st
       <table className="w-full text-sm" aria-label="Live sessions">
         <thead>
           <tr className="text-left">
-            <th>Participant</th><th>Status</th><th>Stage</th><th>Device check</th><th>Last activity</th><th>Rounds stored</th><th>Sensor rate</th><th>Error rate</th><th>Data quality</th>
+            <th>Participant</th><th>Status</th><th>Stage</th><th>Device check</th><th>Last activity</th><th>Rounds stored</th><th>Sensor rate</th><th>Input</th><th>Error rate</th><th>Data quality</th>
           </tr>
         </thead>
         <tbody>
@@ -47,6 +48,7 @@ export default async function MonitorPage({ params }: { params: Promise<{ id: st
               <td>{s.lastActivityAt ? s.lastActivityAt.toISOString().replace("T", " ").slice(0, 19) + " UTC" : "—"}</td>
               <td>{s.sequencesStored}{s.sequencesPlanned !== null ? ` of ${s.sequencesPlanned}` : ""}</td>
               <td>{s.sampleRateHz !== null ? `${Math.round(s.sampleRateHz)} Hz` : "—"}</td>
+              <td data-testid="input-details">{s.inputs ? describeInputDetails(s.inputs) : "—"}</td>
               <td>{s.errorRate !== null ? `${(100 * s.errorRate).toFixed(1)} %` : "—"}</td>
               <td>{s.flags.length === 0 ? "no warnings" : <ul className="list-disc pl-4">{s.flags.map((f) => <li key={f}>warning: {f}</li>)}</ul>}</td>
             </tr>

@@ -1,0 +1,143 @@
+import { expect, test, type Page } from "@playwright/test";
+import type { Knex } from "knex";
+import { Quaternion, Vector3 } from "three";
+import { fixtureDb } from "./fixtures/session-study";
+import { SensorWorld } from "./fixtures/inputs/sensorWorld";
+import { PHONE, expectReplayAgrees, finish, oneParticipant, onlyConfig, playSimulated, reachTask, techniqueDesign } from "./fixtures/inputs/inputStudy";
+
+// Motion techniques through Chromium's own sensor emulation (CDP Emulation.setSensorOverride*),
+// one sequence each, in both display modes. The emulated phone is the simulated participant's:
+// 60 Hz, its bias and noise (lib/motion/simulate/sensorProfiles.ts). Checks:
+// (a) the stored stream replayed through `npm run replay` reproduces every selection point;
+// (b) the bias the calibration measured equals the injected bias within 0.15 deg/s (the W3C
+//     readings are coarsened to 0.1 deg/s by Chromium, so the mean of the noisy readings is
+//     what can be recovered);
+// (c) the rate the device check reports is the emulated 60 Hz within 10 %.
+
+let db: Knex;
+test.beforeAll(() => {
+  db = fixtureDb();
+});
+test.afterAll(async () => {
+  await db.destroy();
+});
+
+/** A page with the emulated phone's sensors on (without the Generic Sensor API when `deviceMotionOnly`). */
+async function withSensors(page: Page, seed: number, deviceMotionOnly = false): Promise<SensorWorld> {
+  if (deviceMotionOnly) {
+    // a browser without the Generic Sensor API: the runner falls back to DeviceMotion
+    await page.addInitScript(() => {
+      for (const name of ["Gyroscope", "Accelerometer", "GravitySensor", "LinearAccelerationSensor"]) delete (window as unknown as Record<string, unknown>)[name];
+    });
+  }
+  const cdp = await page.context().newCDPSession(page);
+  const world = new SensorWorld(cdp, { rateHz: PHONE.rateHz, biasDegPerS: PHONE.gyroBiasDegPerS, noiseSdDegPerS: PHONE.gyroNoiseSdDegPerS, seed });
+  await world.enable();
+  world.still("flat");
+  world.start();
+  return world;
+}
+
+function expectBiasAndRate(s: { bias: { biasXDegPerS: number; biasYDegPerS: number; biasZDegPerS: number } | null; device: { sampleRateHz: number | null } }): void {
+  // (b) the injected bias, deg/s (W3C DeviceMotion rotationRate alpha/beta/gamma = rates about x/y/z)
+  expect(s.bias).not.toBeNull();
+  expect(Math.abs(s.bias!.biasXDegPerS - PHONE.gyroBiasDegPerS.x)).toBeLessThanOrEqual(0.15);
+  expect(Math.abs(s.bias!.biasYDegPerS - PHONE.gyroBiasDegPerS.y)).toBeLessThanOrEqual(0.15);
+  expect(Math.abs(s.bias!.biasZDegPerS - PHONE.gyroBiasDegPerS.z)).toBeLessThanOrEqual(0.15);
+  // (c) the emulated rate
+  expect(Math.abs(s.device.sampleRateHz! - PHONE.rateHz) / PHONE.rateHz).toBeLessThanOrEqual(0.1);
+}
+
+for (const displayMode of ["cursor", "view"] as const) {
+  test(`motion, ${displayMode} mode: the simulated participant through the emulated sensors; replay, bias and rate agree`, async ({ page }) => {
+    test.setTimeout(90_000);
+    const design = techniqueDesign("motion", displayMode, { selection: "button" });
+    const config = onlyConfig(design);
+    const p = await oneParticipant(db, `Motion ${displayMode}`, design);
+    // view mode runs without the Generic Sensor API, so both browser paths are driven
+    const world = await withSensors(page, 11, displayMode === "view");
+    await page.goto(`/s/${p.token}`);
+    await reachTask(page, { motion: true });
+    await playSimulated(page, world, config, { seed: 5, select: () => page.keyboard.press("Space") });
+    expect(await finish(page)).toBe(p.completionCode);
+    await world.stop();
+    const s = await expectReplayAgrees(db, p.id, config, [displayMode === "view" ? "device-motion" : "generic-sensor"]);
+    expectBiasAndRate(s);
+    expect(s.quality.inputAgeMedianMs).not.toBeNull();
+  });
+}
+
+for (const displayMode of ["cursor", "view"] as const) {
+  test(`tilt-rate, ${displayMode} mode: tilting the emulated device drives the aim; replay, bias and rate agree`, async ({ page }) => {
+    test.setTimeout(90_000);
+    const design = techniqueDesign("tilt-rate", displayMode, { selection: "button" });
+    const config = onlyConfig(design);
+    const p = await oneParticipant(db, `Tilt ${displayMode}`, design);
+    const world = await withSensors(page, 12);
+    await page.goto(`/s/${p.token}`);
+    await reachTask(page, { motion: true });
+    // Closed loop, as a person would: tilt towards the highlighted target (the further away, the
+    // more), level the device near it, press Space. Tilting the right edge down is a tilt to
+    // the right; tilting the top edge away, forward (science.md §8 signs).
+    const base = new Quaternion(); // flat, screen up
+    world.follow(base);
+    const canvas = page.getByTestId("task-canvas");
+    let tilt = new Quaternion();
+    for (let k = 0; k < 600 && (await canvas.isVisible()); k++) {
+      const d = await canvas.evaluate((c) => ({ ex: Number(c.dataset.nextX) - Number(c.dataset.aimX), ey: Number(c.dataset.nextY) - Number(c.dataset.aimY) })).catch(() => null);
+      if (!d) break;
+      const dist = Math.hypot(d.ex, d.ey);
+      const within = displayMode === "cursor" ? 12 : 10;
+      if (dist < within) {
+        world.orient(base);
+        await page.waitForTimeout(150);
+        await page.keyboard.press("Space");
+        await page.waitForTimeout(100);
+        continue;
+      }
+      const deg = Math.min(20, 8 + dist / 20);
+      // right (ex > 0): about the device y axis (top edge), right side down; down the screen (ey > 0): top edge towards the person
+      const axis = new Vector3(d.ey / dist, d.ex / dist, 0).normalize();
+      tilt = new Quaternion().setFromAxisAngle(axis, (deg * Math.PI) / 180);
+      world.orient(base.clone().multiply(tilt));
+      await page.waitForTimeout(40);
+    }
+    expect(await finish(page)).toBe(p.completionCode);
+    await world.stop();
+    const s = await expectReplayAgrees(db, p.id, config, ["generic-sensor"]);
+    expectBiasAndRate(s);
+  });
+}
+
+for (const displayMode of ["cursor", "view"] as const) {
+  test.describe(() => {
+    test.use({ viewport: { width: 412, height: 915 }, hasTouch: true, isMobile: true, deviceScaleFactor: 2 });
+    test(`motion+touch, ${displayMode} mode on a phone: device motion plus a touch drag, selection by a tap; replay, bias and rate agree`, async ({ page }) => {
+      test.setTimeout(90_000);
+      const design = techniqueDesign("motion+touch", displayMode, { selection: "tap", config: { pointerDegreesPerPixel: 0.1, pointerCursorGain: 1 } });
+      const config = onlyConfig(design);
+      const p = await oneParticipant(db, `Motion touch ${displayMode}`, design);
+      const world = await withSensors(page, 13);
+      await page.goto(`/s/${p.token}`);
+      await reachTask(page, { motion: true });
+      const box = (await page.getByTestId("task-canvas").boundingBox())!;
+      const cdp = await page.context().newCDPSession(page);
+      const touch = (type: "touchStart" | "touchMove" | "touchEnd", x: number, y: number) => cdp.send("Input.dispatchTouchEvent", { type, touchPoints: type === "touchEnd" ? [] : [{ x, y }] });
+      // a drag of 60 px to the right on the task area first (the second channel), then the taps
+      const x0 = box.x + 40, y0 = box.y + box.height - 40;
+      await touch("touchStart", x0, y0);
+      for (let k = 1; k <= 6; k++) await touch("touchMove", x0 + 10 * k, y0);
+      await touch("touchEnd", 0, 0);
+      await playSimulated(page, world, config, { seed: 7, select: () => page.touchscreen.tap(box.x + 30, box.y + 30) });
+      expect(await finish(page)).toBe(p.completionCode);
+      await world.stop();
+      const s = await expectReplayAgrees(db, p.id, config, ["generic-sensor", "touch-drag"]);
+      expectBiasAndRate(s);
+      // the drag reached the stream: pointer deltas summing to its 60 px
+      const header = s.streamCsv.split("\n")[0]!.split(",");
+      const dx = header.indexOf("pointer_dx");
+      const sum = s.streamCsv.trim().split("\n").slice(1).reduce((a, l) => a + (Number(l.split(",")[dx]) || 0), 0);
+      expect(sum).toBeCloseTo(60, 0);
+    });
+  });
+}
