@@ -15,6 +15,7 @@ import { inputPathsFor } from "@/lib/runner/inputPaths";
 import { layoutFit, type FitVerdict } from "@/lib/runner/fit";
 import type { SequenceQuality } from "@/lib/runner/batch";
 import { formatSampleCsv } from "@/lib/motion/csvFormat";
+import { moveShownPosition } from "@/lib/motion/shownPosition";
 import { gzipText } from "./gzip";
 import { openTaskInputs } from "./inputs";
 import { TaskControls, type ControlKind } from "./TaskControls";
@@ -133,14 +134,15 @@ export function TaskCanvas(props: {
     let held = 0, keyClutch = false, keyAim = false, mouseAim = false, screenClutch = false, screenAim = false;
     let mark: { x: number; y: number; hit: boolean; at: number } | null = null;
     let w = 0, h = 0;
+    const bounds = { width: 0, height: 0 };
     const pos = { x: 0, y: 0 }; // cursor: canvas px; view: yaw/pitch deg
     const tmp = { x: 0, y: 0 }, tmp2 = { x: 0, y: 0 };
 
     const resize = (): void => {
       const r = canvas.getBoundingClientRect();
       const dpr = window.devicePixelRatio || 1;
-      w = r.width;
-      h = r.height;
+      w = bounds.width = r.width;
+      h = bounds.height = r.height;
       canvas.width = Math.round(w * dpr);
       canvas.height = Math.round(h * dpr);
       ctx2d.setTransform(dpr, 0, 0, dpr, 0, 0);
@@ -255,17 +257,8 @@ export function TaskCanvas(props: {
       if (out) {
         // recenter resets the engine's orientation reference only: the aim stays where it is
         if (out.recentered) recorder.noteRecenter();
-        pos.x += out.dx;
-        pos.y += out.dy;
-        if (!view) {
-          // the cursor stays in the task area; the engine learns where it is shown (a replay does the same with --bounds)
-          const cx = Math.min(Math.max(pos.x, 0), w), cy = Math.min(Math.max(pos.y, 0), h);
-          if (cx !== pos.x || cy !== pos.y) {
-            pos.x = cx;
-            pos.y = cy;
-            engine.setPosition(cx, cy);
-          }
-        }
+        // the cursor stays in the task area; the engine learns where it is shown (a replay does the same with --bounds)
+        moveShownPosition(pos, out, view ? null : bounds, engine);
       }
       if (out?.clutched) recorder.noteClutch();
       if (!repeating) ages.arrived(inputs.lastInputMs);
