@@ -120,15 +120,15 @@ for (const displayMode of ["cursor", "view"] as const) {
       const world = await withSensors(page, 13);
       await page.goto(`/s/${p.token}`);
       await reachTask(page, { motion: true });
-      const box = (await page.getByTestId("task-canvas").boundingBox())!;
+      const area = (await page.getByTestId("task-canvas").boundingBox())!;
       const cdp = await page.context().newCDPSession(page);
       const touch = (type: "touchStart" | "touchMove" | "touchEnd", x: number, y: number) => cdp.send("Input.dispatchTouchEvent", { type, touchPoints: type === "touchEnd" ? [] : [{ x, y }] });
       // a drag of 60 px to the right on the task area first (the second channel), then the taps
-      const x0 = box.x + 40, y0 = box.y + box.height - 40;
+      const x0 = area.x + 40, y0 = area.y + area.height - 40;
       await touch("touchStart", x0, y0);
       for (let k = 1; k <= 6; k++) await touch("touchMove", x0 + 10 * k, y0);
       await touch("touchEnd", 0, 0);
-      await playSimulated(page, world, config, { seed: 7, select: () => page.touchscreen.tap(box.x + 30, box.y + 30) });
+      await playSimulated(page, world, config, { seed: 7, select: () => page.touchscreen.tap(area.x + 30, area.y + 30) });
       expect(await finish(page)).toBe(p.completionCode);
       await world.stop();
       const s = await expectReplayAgrees(db, p.id, config, ["generic-sensor", "touch-drag"]);

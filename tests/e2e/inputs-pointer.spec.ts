@@ -48,19 +48,19 @@ test.describe(() => {
       const touch = (type: "touchStart" | "touchMove" | "touchEnd", x = 0, y = 0) => cdp.send("Input.dispatchTouchEvent", { type, touchPoints: type === "touchEnd" ? [] : [{ x, y }] });
       const canvas = page.getByTestId("task-canvas");
       for (let k = 0; k < 80 && (await canvas.isVisible()); k++) {
-        const box = await canvas.boundingBox();
+        const area = await canvas.boundingBox();
         const d = await aimAndTarget(page);
-        if (!box || !d) break;
+        if (!area || !d) break;
         if (displayMode === "cursor") {
           // touch the highlighted target where it is drawn
           const tx = Number(await canvas.getAttribute("data-next-x")), ty = Number(await canvas.getAttribute("data-next-y"));
-          await touch("touchStart", box.x + tx, box.y + ty);
+          await touch("touchStart", area.x + tx, area.y + ty);
           await touch("touchEnd");
           await page.waitForTimeout(80);
           continue;
         }
         const dist = Math.hypot(d.ex, d.ey);
-        const cx = box.x + box.width / 2, cy = box.y + box.height / 2;
+        const cx = area.x + area.width / 2, cy = area.y + area.height / 2;
         if (dist < 4) {
           await touch("touchStart", cx, cy); // a tap without movement selects
           await touch("touchEnd");
