@@ -35,7 +35,7 @@ test.afterAll(async () => {
 });
 
 test("a whole session on a phone through the emulated sensors: reload mid-block, offline for a while, every movement once", async ({ page, context }) => {
-  test.setTimeout(300_000);
+  test.setTimeout(480_000); // about 2–4 minutes; more on a shared, loaded machine
   const p = fx.participants[0]!;
   const world = new SensorWorld(await context.newCDPSession(page), { rateHz: PHONE.rateHz, biasDegPerS: PHONE.gyroBiasDegPerS, noiseSdDegPerS: PHONE.gyroNoiseSdDegPerS, seed: 31 });
   await world.enable();
@@ -50,7 +50,7 @@ test("a whole session on a phone through the emulated sensors: reload mid-block,
 
   const config = (gain: number) => ({ technique: "motion", displayMode: "cursor", pixelsPerDegree: 10, frame: "device", deviceHorizontalAxis: "screen-up", gain });
   let reloaded = false, wentOffline = false, playedKey = "", seed = 1;
-  const deadline = Date.now() + 260_000;
+  const deadline = Date.now() + 420_000;
   const canvas = page.getByTestId("task-canvas");
   while (Date.now() < deadline) {
     if (await page.getByTestId("completion-code").isVisible()) break;
@@ -127,7 +127,7 @@ test("a whole session on a phone through the emulated sensors: reload mid-block,
 });
 
 test("the study the session filled: its owner sees the results, exports the archive and downloads the consent register", async ({ page }) => {
-  test.setTimeout(120_000);
+  test.setTimeout(300_000); // the results page replays the streams first: slow on a shared machine
   const owner = demo("researcher"); // the fixture's studies belong to the demo researcher
   await signInWithForm(page, owner.email, owner.password);
   await page.waitForURL(/\/studies/);
