@@ -79,7 +79,8 @@ test("a whole session on a phone through the emulated sensors: reload mid-block,
         await context.setOffline(true);
         wentOffline = true;
         // the round finishes offline; its data waits on the device
-        await expect(page.getByTestId("upload-status")).toContainText("kept on this device", { timeout: 60_000 });
+        // (up to ten movements left, each ending by a selection or by the 10 s time limit)
+        await expect(page.getByTestId("upload-status")).toContainText("kept on this device", { timeout: 150_000 });
         await page.waitForTimeout(3000);
         await context.setOffline(false);
         continue;
@@ -139,7 +140,8 @@ test("the study the session filled: its owner sees the results, exports the arch
   // sensors is too rough in this long session to promise one for both conditions.
   await expect(page.locator("main")).toContainText("of 52 movements");
 
-  await page.getByLabel(/raw sensor streams/).check();
+  // the page refreshes itself while the study recruits: try the box again if a refresh moved it
+  await expect(async () => page.getByLabel(/raw sensor streams/).check({ timeout: 5000 })).toPass({ timeout: 60_000 });
   const [posted] = await Promise.all([
     page.waitForResponse((r) => r.url().endsWith(`/api/studies/${fx.studyId}/exports`) && r.request().method() === "POST"),
     page.getByRole("button", { name: "Start export" }).click(),
