@@ -84,7 +84,7 @@ describe("the queue", () => {
     };
     // many dispatchers at once (several server processes) start exactly two, of two studies
     const started = (await Promise.all(Array.from({ length: 6 }, () => dispatchExports(db, run, 2)))).flat();
-    expect(started.sort()).toEqual([a1, b1]);
+    expect([...started].sort((x, y) => x - y)).toEqual([a1, b1]);
     expect(await statusOf(a2)).toBe("queued");
     expect(await statusOf(c1)).toBe("queued");
     await expect.poll(() => finish.size).toBe(2);
