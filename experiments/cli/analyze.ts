@@ -1,4 +1,5 @@
 // analyze: reads a trial table (CSV) and prints the analysis; see docs/analysis.md.
+import { once } from "node:events";
 import { basename } from "node:path";
 import { parseArgs } from "node:util";
 import { z } from "zod";
@@ -6,11 +7,16 @@ import { analyzeTrialFile, EXCLUSION_RULES } from "../../lib/analysis";
 import { analyzeArchive } from "../../lib/export/analyzeArchive";
 import { FLAG_COLUMNS, TrialTableError } from "../../lib/trials";
 import { formatReport } from "./formatReport";
-import { writeJson } from "./writeJson";
+import { jsonPieces } from "./writeJson";
 
-/** The JSON result and a line end, written in pieces (writeJson: the same bytes as JSON.stringify). */
-function printJson(value: unknown): void {
-  writeJson(value, (piece) => process.stdout.write(piece));
+/**
+ * The JSON result and a line end, written in pieces (jsonPieces: the same bytes as JSON.stringify),
+ * each after the previous one has drained, so a slow reader of a pipe never makes us hold the whole text.
+ */
+async function printJson(value: unknown): Promise<void> {
+  for (const piece of jsonPieces(value)) {
+    if (!process.stdout.write(piece)) await once(process.stdout, "drain");
+  }
   process.stdout.write("\n");
 }
 
@@ -62,7 +68,7 @@ async function main(argv: string[]): Promise<number> {
       // The archive says its unit and geometry (configurations.json); the exclusion choices are ours.
       const { result, pathSource, pathProblems } = await analyzeArchive(args.file, { start: args.start, exclude: args.exclude, dropFlagged: args.dropFlagged, anova: args.anova });
       const out = { ...result, archive: { pathSource, pathProblems } };
-      if (args.json) printJson(out);
+      if (args.json) await printJson(out);
       else process.stdout.write(formatReport(result, basename(args.file)));
       return 0;
     }
@@ -76,7 +82,7 @@ async function main(argv: string[]): Promise<number> {
       anova: args.anova,
       legacy: args.legacy,
     });
-    if (args.json) printJson(result);
+    if (args.json) await printJson(result);
     else process.stdout.write(formatReport(result, basename(args.file)));
     return 0;
   } catch (err) {

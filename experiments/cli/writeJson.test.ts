@@ -1,16 +1,12 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { writeJson } from "./writeJson";
+import { jsonPieces } from "./writeJson";
 
 // Reference: the runtime's own JSON.stringify (ECMA-262 §25.5.2), including what it leaves out
 // (undefined, functions) and writes as null (undefined array elements, NaN, ±Infinity).
-const written = (value: unknown, chunk: number) => {
-  let s = "";
-  writeJson(value, (p) => (s += p), chunk);
-  return s;
-};
+const written = (value: unknown, chunk: number) => [...jsonPieces(value, chunk)].join("");
 
-describe("writeJson", () => {
+describe("jsonPieces", () => {
   it("writes exactly JSON.stringify(value), whatever the chunk size (property)", () => {
     const leaf = fc.oneof(fc.jsonValue(), fc.constant(undefined), fc.constant(Number.NaN), fc.constant(Number.NEGATIVE_INFINITY), fc.constant(() => 1));
     const value = fc.oneof(
