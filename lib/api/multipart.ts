@@ -26,7 +26,13 @@ export async function saveMultipartFile(request: Request, dir: string, limit: nu
   let saved: Omit<SavedUpload, "fields"> | null = null;
 
   await new Promise<void>((resolve, reject) => {
-    const bb = busboy({ headers: { "content-type": type }, limits: { fileSize: limit, files: 1, fields: 20, fieldSize: 10_000 } });
+    let bb: ReturnType<typeof busboy>;
+    try {
+      bb = busboy({ headers: { "content-type": type }, limits: { fileSize: limit, files: 1, fields: 20, fieldSize: 10_000 } });
+    } catch (e) {
+      reject(badRequest(`The form could not be read (${(e as Error).message}).`)); // no boundary, or another malformed type
+      return;
+    }
     let pending: Promise<void> | null = null;
     bb.on("field", (name, value) => {
       fields[name] = value;
@@ -59,7 +65,7 @@ export async function saveMultipartFile(request: Request, dir: string, limit: nu
       });
       stream.pipe(out);
     });
-    bb.on("error", reject);
+    bb.on("error", (e: unknown) => reject(badRequest(`The form could not be read (${(e as Error).message}).`))); // a malformed body is the client's
     bb.on("close", () => {
       if (pending) pending.then(resolve, reject);
       else resolve();
