@@ -10,6 +10,9 @@ export default defineConfig({
   workers: process.env.PW_WORKERS ? Number(process.env.PW_WORKERS) : 2,
   retries: 0,
   timeout: 60_000,
+  // A page that answers after a password check (bcrypt) or a first server render can take over
+  // 5 s on a loaded 2-core machine; 15 s per expectation keeps such waits from failing a run.
+  expect: { timeout: 15_000 },
   reporter: [["list"], ["json", { outputFile: "reports/playwright.json" }]],
   use: {
     baseURL,
