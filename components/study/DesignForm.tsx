@@ -1,16 +1,17 @@
 "use client";
 
 import { useRouter } from "next/navigation";
-import { useDeferredValue, useMemo, useState } from "react";
+import { useState } from "react";
 import { Controller, useFieldArray, useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
-import { studyDesignSchema, CONDITION_SEPARATOR, type StudyDesign, type StudyDesignInput } from "@/lib/study/design";
+import { studyDesignSchema, type StudyDesign, type StudyDesignInput } from "@/lib/study/design";
 import { designFieldLabels as L } from "@/lib/study/editor";
 import { apiSend, ApiError } from "./api";
 import { NumberListInput, TextListInput } from "./ListInput";
 import { Err } from "./design/Err";
 import { FactorsSection } from "./design/FactorsSection";
-import { DesignOverview } from "./design/DesignOverview";
+import { ConditionsSection } from "./design/ConditionsSection";
+import { LiveOverview } from "./design/LiveOverview";
 
 export const EMPTY_DESIGN: StudyDesignInput = {
   baseConfig: {},
@@ -36,7 +37,8 @@ function withTaskDisplayMode(design: StudyDesign): StudyDesign {
 /**
  * The design form: one zod schema (studyDesignSchema) for the form and the server; the settings
  * of the base and of each level are edited with the schema-generated editor; the overview
- * (summary, pictures, checks, power) follows the values, deferred so typing stays quick.
+ * (summary, pictures, checks, power) follows the values once typing pauses. Each part watches only
+ * the values it shows (a key re-renders the field typed in and what depends on it, not the whole form).
  */
 export function DesignForm({ studyId, initial, readOnly }: { studyId: number; initial: StudyDesignInput | null; readOnly: boolean }) {
   const router = useRouter();
@@ -45,16 +47,7 @@ export function DesignForm({ studyId, initial, readOnly }: { studyId: number; in
   const { register, control, handleSubmit, setError, setValue, formState: { errors, isSubmitting } } = form;
   const items = useFieldArray({ control, name: "perConditionItems" });
   const between = useFieldArray({ control, name: "betweenFactors" });
-  const factorValues = useWatch({ control, name: "factors" });
-  const subset = useWatch({ control, name: "conditionSubset" }) ?? null;
   const widths = useWatch({ control, name: "task.widths" }) ?? [];
-  const values = useWatch({ control }) as StudyDesignInput;
-  const deferred = useDeferredValue(values);
-  const crossing = useMemo(() => {
-    let combos: string[][] = [[]];
-    for (const f of factorValues ?? []) combos = combos.flatMap((c) => (f.levels ?? []).map((l) => [...c, l.label]));
-    return combos.map((c) => c.join(CONDITION_SEPARATOR));
-  }, [factorValues]);
 
   const onSubmit = handleSubmit(async (design) => {
     setSaved(null);
@@ -89,18 +82,7 @@ export function DesignForm({ studyId, initial, readOnly }: { studyId: number; in
           <button type="button" className="btn-secondary" onClick={() => between.append({ name: `group_${between.fields.length + 1}`, levels: ["", ""] })}>Add between-subject factor</button>
         </section>
 
-        <section className="space-y-2">
-          <h2>Conditions</h2>
-          <Controller control={control} name="conditionSubset" render={({ field }) => (
-            <div className="space-y-1 text-sm">
-              <label className="flex items-center gap-2"><input type="checkbox" checked={field.value !== null && field.value !== undefined} onChange={(e) => field.onChange(e.target.checked ? [...crossing] : null)} /> {L.conditionSubset} ({crossing.length})</label>
-              {subset !== null && crossing.map((c) => (
-                <label key={c} className="ml-6 flex items-center gap-2"><input type="checkbox" checked={subset.includes(c)} onChange={(e) => field.onChange(e.target.checked ? [...subset, c] : subset.filter((x) => x !== c))} /> {c}</label>
-              ))}
-            </div>
-          )} />
-          <Err errors={errors} path="conditionSubset" />
-        </section>
+        <ConditionsSection control={control} errors={errors} />
 
         <section className="card grid gap-3 sm:grid-cols-3">
           <h2 className="sm:col-span-3">Task</h2>
@@ -170,7 +152,7 @@ export function DesignForm({ studyId, initial, readOnly }: { studyId: number; in
       {saved && <p className="notice" role="status">{saved}</p>}
       {!readOnly && <button className="btn" disabled={isSubmitting}>Save design</button>}
 
-      <DesignOverview values={deferred} studyId={studyId} />
+      <LiveOverview control={control} studyId={studyId} />
     </form>
   );
 }

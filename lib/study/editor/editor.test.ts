@@ -6,7 +6,7 @@ import { studyDesignSchema, taskSchema } from "@/lib/study/design";
 import { configFieldCatalogue, configFieldKeys, configGroups } from "./configFields";
 import { configFieldIssues } from "./configIssues";
 import { designFieldLabels } from "./designFields";
-import { changesFromBase, levelContexts, mergedConfigUnchecked, relevantFields } from "./levelSettings";
+import { changesFromBase, levelContexts, mergedConfigUnchecked, relevantFields, relevantFieldsPerLevel } from "./levelSettings";
 import { presetNotes } from "./presetNotes";
 import { fieldSpecOf, rangeText } from "./schemaFields";
 
@@ -89,6 +89,26 @@ describe("which fields a level shows", () => {
     expect(ctx.map((c) => c.technique)).toEqual(["motion", "stick"]);
     const f = relevantFields(ctx);
     expect(f.has("gain") && f.has("stickMaxRateDegPerS")).toBe(true);
+  });
+  it("all levels at once (the form's fast path) show what each level's own crossing shows", () => {
+    // Not an outside check: the one-pass union must equal relevantFields(levelContexts(...)) per
+    // level, the rule the test above ties to the techniques, for a crossing where it matters.
+    const design = {
+      baseConfig: { gain: 3 },
+      factors: [
+        { levels: [{ config: { technique: "motion" } }, { config: { technique: "stick" } }, { config: { technique: "mouse" } }] },
+        { levels: [{ config: { gainCurve: "two-level" } }, { config: {} }] },
+        { levels: [] },
+      ],
+      task: { displayMode: "cursor" as const },
+    };
+    const configs = design.factors.map((f) => f.levels.map((l) => l.config));
+    const fast = relevantFieldsPerLevel(design.baseConfig, configs, "cursor");
+    design.factors.forEach((f, fi) => f.levels.forEach((_, li) => expect(fast.levels[fi]![li]).toBe([...relevantFields(levelContexts(design, fi, li))].join(","))));
+    expect(fast.levels[0]![2]).not.toBe(fast.levels[0]![1]); // mouse and stick differ, so the check can fail
+    const every = design.factors[0]!.levels.flatMap((_, li) => levelContexts(design, 0, li));
+    expect(fast.base).toBe([...relevantFields(every)].join(","));
+    expect(relevantFieldsPerLevel({}, [], "view").base).toBe([...relevantFields([mergedConfigUnchecked([{}], "view")])].join(","));
   });
   it("a level lists what it changes from the base", () => {
     expect(changesFromBase({ gain: 2 }, { gain: 6, technique: "motion" }).map((c) => [c.field, c.from, c.to])).toEqual([["gain", 2, 6]]);

@@ -51,6 +51,51 @@ export function relevantFields(configs: readonly TransferConfig[]): Set<string> 
   return out;
 }
 
+/** The fields that matter for the base and for each level, comma-separated in catalogue order (relevantFieldsPerLevel). */
+export interface LevelRelevance {
+  /** For the base: every condition's fields (only the base merged when the first factor has no levels). */
+  base: string;
+  /** levels[factor][level]: the fields of the conditions that level takes part in. */
+  levels: string[][];
+}
+
+/**
+ * What relevantFields(levelContexts(design, f, l)) gives for every level at once, and the base's
+ * fields (relevantFieldsPerLevel): each crossed condition is merged and judged once, and each level
+ * takes the union over the conditions it is in, instead of merging every condition again for each
+ * of its levels. Cost: O(conditions × fields) instead of O(levels × conditions × fields).
+ * @throws never.
+ * @example relevantFieldsPerLevel({}, [[{ technique: "mouse" }, { technique: "motion" }]], "cursor").levels[0][0].includes("gain") // false
+ */
+export function relevantFieldsPerLevel(base: Partial | undefined, levelConfigs: readonly (readonly (Partial | undefined)[])[], displayMode: "cursor" | "view" | undefined): LevelRelevance {
+  const keys = configFieldKeys;
+  const judge = (parts: readonly (Partial | undefined)[]): boolean[] => {
+    const merged = mergedConfigUnchecked([base, ...parts], displayMode);
+    return keys.map((k) => configFieldCatalogue[k].relevant(merged));
+  };
+  const union = (into: boolean[], from: readonly boolean[]): void => { from.forEach((v, i) => { if (v) into[i] = true; }); };
+  const join = (flags: readonly boolean[]): string => keys.filter((_, i) => flags[i]).join(",");
+
+  const perLevel = levelConfigs.map((levels) => levels.map(() => keys.map(() => false)));
+  const all = keys.map(() => false);
+  // every combination of one level per factor (a factor without levels adds nothing: index -1)
+  let combos: { parts: (Partial | undefined)[]; picks: number[] }[] = [{ parts: [], picks: [] }];
+  for (const levels of levelConfigs) {
+    const choices = levels.length ? levels.map((c, li) => ({ c: c ?? {}, li })) : [{ c: {}, li: -1 }];
+    combos = combos.flatMap((x) => choices.map(({ c, li }) => ({ parts: [...x.parts, c], picks: [...x.picks, li] })));
+  }
+  for (const { parts, picks } of combos) {
+    const flags = judge(parts);
+    union(all, flags);
+    picks.forEach((li, fi) => { if (li >= 0) union(perLevel[fi]![li]!, flags); });
+  }
+  const firstHasLevels = (levelConfigs[0]?.length ?? 0) > 0;
+  return {
+    base: levelConfigs.length === 0 || firstHasLevels ? join(all) : join(judge([])),
+    levels: perLevel.map((levels) => levels.map(join)),
+  };
+}
+
 /** One field a level changes from the study-wide base settings. */
 export interface SettingChange {
   field: string;
