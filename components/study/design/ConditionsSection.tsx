@@ -1,6 +1,6 @@
 "use client";
 
-import { memo, useMemo } from "react";
+import { memo, useDeferredValue, useMemo } from "react";
 import { useController, useWatch } from "react-hook-form";
 import { CONDITION_SEPARATOR, type StudyDesignInput } from "@/lib/study/design";
 import { designFieldLabels as L } from "@/lib/study/editor";
@@ -34,7 +34,9 @@ const ConditionChoices = memo(function ConditionChoices({ crossing, subset, onCh
 /** Which crossed conditions the study runs: all of them, or a chosen subset. Follows the levels' labels only. */
 export function ConditionsSection({ control, errors }: { control: DesignControl; errors: DesignErrors }) {
   const labelsKey = useWatch({ control, name: "factors", compute: levelLabelsKey });
-  const crossing = useMemo(() => crossingOf(labelsKey), [labelsKey]);
+  // the list follows a label typed a frame later, so the key itself is shown first
+  const laterLabelsKey = useDeferredValue(labelsKey);
+  const crossing = useMemo(() => crossingOf(laterLabelsKey), [laterLabelsKey]);
   const { field } = useController({ control, name: "conditionSubset" });
   return (
     <section className="space-y-2">
