@@ -111,9 +111,6 @@ export function DeviceStep(props: { techniques: Technique[]; displayMode: "curso
       {state === "refused" && props.screenedReturn && (
         <p>If this device cannot take part, you can <a href={props.screenedReturn} data-testid="screened-return">return to the recruitment site</a>; thank you for your time.</p>
       )}
-      {state === "refused" && props.screenedReturn && (
-        <p>If this device cannot take part, you can <a href={props.screenedReturn} data-testid="screened-return">return to the recruitment site</a>; thank you for your time.</p>
-      )}
     </section>
   );
 }

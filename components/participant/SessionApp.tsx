@@ -190,6 +190,10 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
         setCode(done.completionCode);
         setReturnUrl(done.returnUrl ?? null);
       }
+      else if (res?.status === 409 && retry < 20) {
+        // the server has not stored the last round yet (its upload may still be on the way): ask again shortly
+        setTimeout(() => setRetry((n) => n + 1), 1500);
+      }
       else if (res) setError(await errorMessage(res));
     })();
   }, [progress.stage, code, withdrawn, uploadSeen, upload.pending, upload.refused, ready, token, retry]);
