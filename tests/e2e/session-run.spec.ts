@@ -144,12 +144,12 @@ test("the study the session filled: its owner sees the results, exports the arch
   await expect(async () => page.getByLabel(/raw sensor streams/).check({ timeout: 5000 })).toPass({ timeout: 60_000 });
   const [posted] = await Promise.all([
     page.waitForResponse((r) => r.url().endsWith(`/api/studies/${fx.studyId}/exports`) && r.request().method() === "POST"),
-    page.getByRole("button", { name: "Start export" }).click(),
+    page.getByRole("button", { name: "Start export" }).press("Enter"), // the keyboard: while the results page refreshes itself, its layout can shift under a pointer (seen: the options above the button took the click for 5 minutes)
   ]);
   const { export: job } = (await posted.json()) as { export: { id: number } };
   const row = page.getByTestId(`export-${job.id}`);
   await expect(row.getByText("done", { exact: true })).toBeVisible({ timeout: 45_000 });
-  const [download] = await Promise.all([page.waitForEvent("download"), row.getByRole("link", { name: "Download" }).click()]);
+  const [download] = await Promise.all([page.waitForEvent("download"), row.getByRole("link", { name: "Download" }).press("Enter")]);
   const files = await readZip(await download.path());
   // 2 conditions × 2 measured sequences × 13 movements; practice is not in trials.csv; one stream per sequence, practice too
   const trialLines = files.get("trials.csv")!.toString("utf8").trim().split("\n");
