@@ -162,7 +162,7 @@ test("the study the session filled: its owner sees the results, exports the arch
   }
 
   await page.goto(`/studies/${fx.studyId}/consent`);
-  const [register] = await Promise.all([page.waitForEvent("download"), page.getByRole("link", { name: "Consent register (CSV)" }).click()]);
+  const [register] = await Promise.all([page.waitForEvent("download"), page.getByRole("link", { name: "Consent register (CSV)" }).press("Enter")]);
   const csv = readFileSync(await register.path(), "utf8").trim().split("\n");
   expect(csv).toHaveLength(2);
   expect(csv[1]).toContain(p.code);
