@@ -1,13 +1,15 @@
 import type { Knex } from "knex";
+import type { Queryable } from "@/lib/db";
 import { hashPassword } from "@/lib/auth/password";
 import { hashToken, newToken } from "@/lib/auth/tokens";
 import type { PasswordTokenRow } from "@/lib/data/rows";
+import { appendAudit } from "@/lib/data/audit";
 import { setUserPassword } from "@/lib/data/users";
 
 export const TOKEN_LIFETIME_MS = 60 * 60 * 1000;
 
 /** Makes a single-use token for a password reset or an invitation; only its hash is stored. */
-export async function issuePasswordToken(db: Knex, userId: number, purpose: "reset" | "invite", now = new Date()): Promise<string> {
+export async function issuePasswordToken(db: Queryable, userId: number, purpose: "reset" | "invite", now = new Date()): Promise<string> {
   const { token, hash } = newToken();
   await db("password_tokens").insert({ user_id: userId, token_hash: hash, purpose, expires_at: new Date(now.getTime() + TOKEN_LIFETIME_MS) });
   return token;
@@ -39,6 +41,8 @@ export async function consumePasswordToken(db: Knex, token: string, password: st
     await setUserPassword(trx, row.user_id, passwordHash); // ends the user's existing sessions
     // Any other open tokens of this user stop working too.
     await trx("password_tokens").where({ user_id: row.user_id }).whereNull("used_at").update({ used_at: now });
+    // the new password and its entry commit together
+    await appendAudit(trx, { actorUserId: row.user_id, actorLabel: `user ${row.user_id}`, action: "user.password_set", details: {} });
     return row.user_id;
   });
 }

@@ -13,11 +13,15 @@ import { issuePasswordToken } from "./password-tokens";
 /** Creates an account without a password and mails a single-use link to choose one. */
 export async function inviteUser(db: Knex, actor: SessionUser, input: InviteUserInput): Promise<User> {
   if (await findUserRowByEmail(db, input.email)) throw conflict("An account with this e-mail exists already.");
-  const id = await insertUser(db, { ...input, passwordHash: null });
-  const token = await issuePasswordToken(db, id, "invite");
+  // the account, its token and the entry commit together; the mail goes out after
+  const { id, token } = await db.transaction(async (trx) => {
+    const id = await insertUser(trx, { ...input, passwordHash: null });
+    const token = await issuePasswordToken(trx, id, "invite");
+    await appendAudit(trx, { actorUserId: actor.id, actorLabel: actor.email, action: "user.invite", details: { userId: id, role: input.role } });
+    return { id, token };
+  });
   const mail = inviteMail({ name: input.name, role: input.role, invitedBy: actor.name, link: `${env.NEXTAUTH_URL}/reset/${token}` });
   await sendMail({ to: input.email, ...mail, template: "invite" });
-  await appendAudit(db, { actorUserId: actor.id, actorLabel: actor.email, action: "user.invite", details: { userId: id, role: input.role } });
   const user = await findUserById(db, id);
   if (!user) throw new Error("inviteUser: the new account vanished");
   return user;
@@ -64,8 +68,11 @@ export async function startPasswordReset(db: Knex, email: string, address: strin
 export async function requestPasswordReset(db: Knex, email: string): Promise<void> {
   const row = await findUserRowByEmail(db, email);
   if (!row || !row.active) return;
-  const token = await issuePasswordToken(db, row.id, "reset");
+  const token = await db.transaction(async (trx) => {
+    const token = await issuePasswordToken(trx, row.id, "reset");
+    await appendAudit(trx, { actorUserId: row.id, actorLabel: row.email, action: "user.reset_requested", details: {} });
+    return token;
+  });
   const mail = passwordResetMail({ name: row.name, link: `${env.NEXTAUTH_URL}/reset/${token}` });
   await sendMail({ to: row.email, ...mail, template: "reset" });
-  await appendAudit(db, { actorUserId: row.id, actorLabel: row.email, action: "user.reset_requested", details: {} });
 }

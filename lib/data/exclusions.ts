@@ -84,8 +84,11 @@ export async function addExclusion(db: Knex, user: SessionUser | null, studyId: 
     if (!stored) throw notFound("No such measured sequence for this participant.");
     if (await active.clone().where({ scope: "sequence", ...where }).first("id")) throw conflict("This sequence is already excluded.");
   }
-  const [id] = await db("exclusions").insert({ study_id: studyId, participant_id: p.id, scope: v.scope, ...(where ?? {}), reason: v.reason, created_by: user!.id });
-  await auditAs(db, user!, "exclusion.add", studyId, { exclusionId: Number(id), participant: p.code, scope: v.scope, ...(where ?? {}), reason: v.reason });
+  const id = await db.transaction(async (trx) => {
+    const [id] = await trx("exclusions").insert({ study_id: studyId, participant_id: p.id, scope: v.scope, ...(where ?? {}), reason: v.reason, created_by: user!.id });
+    await auditAs(trx, user!, "exclusion.add", studyId, { exclusionId: Number(id), participant: p.code, scope: v.scope, ...(where ?? {}), reason: v.reason });
+    return id;
+  });
   return (await listExclusions(db, studyId, { all: true })).find((e) => e.id === Number(id))!;
 }
 
@@ -95,8 +98,10 @@ export async function revokeExclusion(db: Knex, user: SessionUser | null, studyI
   const row = await db("exclusions as e").join("participants as p", "p.id", "e.participant_id").where({ "e.id": exclusionId, "e.study_id": studyId }).first<{ revoked_at: Date | null; code: string; scope: string } | undefined>("e.revoked_at", "p.code", "e.scope");
   if (!row) throw notFound("No such exclusion in this study.");
   if (row.revoked_at) throw conflict("This exclusion was already taken back.");
-  await db("exclusions").where({ id: exclusionId }).update({ revoked_at: new Date(), revoked_by: user!.id });
-  await auditAs(db, user!, "exclusion.revoke", studyId, { exclusionId, participant: row.code, scope: row.scope });
+  await db.transaction(async (trx) => {
+    await trx("exclusions").where({ id: exclusionId }).update({ revoked_at: new Date(), revoked_by: user!.id });
+    await auditAs(trx, user!, "exclusion.revoke", studyId, { exclusionId, participant: row.code, scope: row.scope });
+  });
 }
 
 /**

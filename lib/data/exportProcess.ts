@@ -38,13 +38,15 @@ export async function startExportProcess(db: Knex, jobId: number, actor: { id: n
 
 async function markFailed(db: Knex, jobId: number, message: string, actor: { id: number; label: string }): Promise<void> {
   try {
-    const n = await db("exports").where({ id: jobId }).whereIn("status", ["queued", "running"])
-      .update({ status: "failed", stage: "failed", error: message.slice(0, 2000), finished_at: new Date() });
-    if (n > 0) {
-      console.error(`export ${jobId} failed: ${message}`);
-      const row = await db("exports").where({ id: jobId }).first<{ study_id: number }>("study_id");
-      await appendAudit(db, { actorUserId: actor.id, actorLabel: actor.label, action: "export.fail", studyId: row.study_id, details: { exportId: jobId, reason: message.slice(0, 200) } });
-    }
+    await db.transaction(async (trx) => {
+      const n = await trx("exports").where({ id: jobId }).whereIn("status", ["queued", "running"])
+        .update({ status: "failed", stage: "failed", error: message.slice(0, 2000), finished_at: new Date() });
+      if (n > 0) {
+        console.error(`export ${jobId} failed: ${message}`);
+        const row = await trx("exports").where({ id: jobId }).first<{ study_id: number }>("study_id");
+        await appendAudit(trx, { actorUserId: actor.id, actorLabel: actor.label, action: "export.fail", studyId: row.study_id, details: { exportId: jobId, reason: message.slice(0, 200) } });
+      }
+    });
   } catch {
     // the database is gone too; the job stays as it was and the list shows it unfinished
   }

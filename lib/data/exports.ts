@@ -261,8 +261,11 @@ export async function runExportJob(db: Knex, jobId: number, actor: { id: number;
     });
   } catch (err) {
     console.error(`export ${jobId} failed`, err);
-    await db("exports").where({ id: jobId }).whereIn("status", ["queued", "running"]).update({ status: "failed", stage: "failed", error: (err as Error).message.slice(0, 2000), finished_at: new Date() }).catch(() => {});
-    await appendAudit(db, { actorUserId: actor.id, actorLabel: actor.label, action: "export.fail", studyId: job.studyId, details: { exportId: jobId } }).catch(() => {});
+    // the failure and its entry together (a job marked failed without its entry, or the reverse, never commits)
+    await db.transaction(async (trx) => {
+      const n = await trx("exports").where({ id: jobId }).whereIn("status", ["queued", "running"]).update({ status: "failed", stage: "failed", error: (err as Error).message.slice(0, 2000), finished_at: new Date() });
+      if (n > 0) await appendAudit(trx, { actorUserId: actor.id, actorLabel: actor.label, action: "export.fail", studyId: job.studyId, details: { exportId: jobId } });
+    }).catch(() => {});
   } finally {
     clearInterval(beat);
   }

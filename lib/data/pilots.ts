@@ -39,10 +39,14 @@ export async function startPilot(db: Knex, user: SessionUser | null, studyId: nu
   await assertCanEditStudy(db, user, studyId);
   const { device } = pilotRequestSchema.parse(input ?? {});
   const design = await pilotableDesign(db, studyId);
-  const p = await insertParticipant(db, studyId, "link", { kind: "pilot", pilot_design: JSON.stringify(design), last_activity_at: new Date() });
+  const { p, link } = await db.transaction(async (trx) => {
+    const p = await insertParticipant(trx, studyId, "link", { kind: "pilot", pilot_design: JSON.stringify(design), last_activity_at: new Date() });
+    const link = device === "phone" ? await createShortLink(trx, { purpose: "pilot", target: `/s/${p.token}`, ttlMs: PILOT_LINK_TTL_MS, studyId, createdBy: user!.id }) : null;
+    await auditAs(trx, user!, "pilot.start", studyId, { code: p.code, device });
+    return { p, link };
+  });
   const path = `/s/${p.token}`;
-  const shortLink = device === "phone" ? await shortLinkView(await createShortLink(db, { purpose: "pilot", target: path, ttlMs: PILOT_LINK_TTL_MS, studyId, createdBy: user!.id })) : null;
-  await auditAs(db, user!, "pilot.start", studyId, { code: p.code, device });
+  const shortLink = link ? await shortLinkView(link) : null;
   return { id: p.id, code: p.code, link: sessionLink(p.token), path, shortLink };
 }
 
@@ -58,16 +62,20 @@ export async function deletePilot(db: Knex, user: SessionUser | null, studyId: n
   await assertCanEditStudy(db, user, studyId);
   const p = await pilotRow(db, studyId, participantId);
   // every table holding a participant's rows refers to participants with ON DELETE CASCADE
-  await db("participants").where({ id: p.id, study_id: studyId }).whereNot({ kind: "real" }).delete();
-  await auditAs(db, user!, "pilot.delete", studyId, { code: p.code, kind: p.kind });
+  await db.transaction(async (trx) => {
+    await trx("participants").where({ id: p.id, study_id: studyId }).whereNot({ kind: "real" }).delete();
+    await auditAs(trx, user!, "pilot.delete", studyId, { code: p.code, kind: p.kind });
+  });
 }
 
 /** Includes a pilot or simulated participant in results and archives, or leaves it out again (editor or owner). */
 export async function setPilotIncluded(db: Knex, user: SessionUser | null, studyId: number, participantId: number, included: boolean): Promise<void> {
   await assertCanEditStudy(db, user, studyId);
   const p = await pilotRow(db, studyId, participantId);
-  await db("participants").where({ id: p.id }).update({ included });
-  await auditAs(db, user!, included ? "pilot.include" : "pilot.leave_out", studyId, { code: p.code, kind: p.kind });
+  await db.transaction(async (trx) => {
+    await trx("participants").where({ id: p.id }).update({ included });
+    await auditAs(trx, user!, included ? "pilot.include" : "pilot.leave_out", studyId, { code: p.code, kind: p.kind });
+  });
 }
 
 export const simulatedPilotSchema = z.strictObject({
@@ -105,23 +113,23 @@ export async function runSimulatedPilot(db: Knex, user: SessionUser | null, stud
   const codes: string[] = [];
   const minutes: number[] = [];
   let movements = 0;
-  for (let k = 0; k < v.participants; k++, index++) {
-    const person = drawSimulatedPerson(rng, v.spread);
-    const { order } = orderForParticipant(design, index);
-    const now = new Date();
-    const p = await insertParticipant(db, studyId, "link", { kind: "simulated", included: v.include, pilot_design: JSON.stringify(design), status: "invited" });
-    const planSeed = planSeedFor(design.counterbalancing.seed, p.id);
-    let runs;
-    try {
-      runs = simulateSession(design, conditions.map((c) => c.label), configs, order, planSeed, person, p.code);
-    } catch (e) {
-      await db("participants").where({ id: p.id }).delete();
-      throw unprocessable(`The simulated participant cannot run this design: ${(e as Error).message}.`);
-    }
-    const total = sessionMinutes(design, runs);
-    minutes.push(total);
-    const startedAt = new Date(now.getTime() - total * 60_000);
-    await db.transaction(async (trx) => {
+  // all of them and the entry commit together, or none (a design the simulation cannot run leaves nothing behind)
+  const summary = await db.transaction(async (trx) => {
+    for (let k = 0; k < v.participants; k++, index++) {
+      const person = drawSimulatedPerson(rng, v.spread);
+      const { order } = orderForParticipant(design, index);
+      const now = new Date();
+      const p = await insertParticipant(trx, studyId, "link", { kind: "simulated", included: v.include, pilot_design: JSON.stringify(design), status: "invited" });
+      const planSeed = planSeedFor(design.counterbalancing.seed, p.id);
+      let runs;
+      try {
+        runs = simulateSession(design, conditions.map((c) => c.label), configs, order, planSeed, person, p.code);
+      } catch (e) {
+        throw unprocessable(`The simulated participant cannot run this design: ${(e as Error).message}.`);
+      }
+      const total = sessionMinutes(design, runs);
+      minutes.push(total);
+      const startedAt = new Date(now.getTime() - total * 60_000);
       await trx("participants").where({ id: p.id }).update({
         status: "completed", condition_order: JSON.stringify(order.map((i) => conditions[i]!.label)), between_levels: JSON.stringify(betweenLevelsFor(design, index)),
         device: JSON.stringify({ inputs: { motion: true, gamepad: false, touch: true, finePointer: false }, sampleRateHz: sensor.rateHz, jitterSdMs: sensor.jitterSdMs, sourceKind: "scripted", verdict: "ok" }),
@@ -144,13 +152,14 @@ export async function runSimulatedPilot(db: Knex, user: SessionUser | null, stud
         })));
         if (!run.planned.practice) movements += run.trials.length;
       }
-    });
-    codes.push(p.code);
-  }
-  const sorted = [...minutes].sort((a, b) => a - b);
-  const median = sorted.length % 2 ? sorted[(sorted.length - 1) / 2]! : (sorted[sorted.length / 2 - 1]! + sorted[sorted.length / 2]!) / 2;
-  const round = (x: number) => Math.round(x * 10) / 10;
-  const summary = { codes, minutes: { median: round(median), min: round(sorted[0]!), max: round(sorted.at(-1)!) }, movements };
-  await auditAs(db, user!, "pilot.simulate", studyId, { participants: v.participants, spread: v.spread, included: v.include, codes, minutesMedian: summary.minutes.median });
+      codes.push(p.code);
+    }
+    const sorted = [...minutes].sort((a, b) => a - b);
+    const median = sorted.length % 2 ? sorted[(sorted.length - 1) / 2]! : (sorted[sorted.length / 2 - 1]! + sorted[sorted.length / 2]!) / 2;
+    const round = (x: number) => Math.round(x * 10) / 10;
+    const summary = { codes, minutes: { median: round(median), min: round(sorted[0]!), max: round(sorted.at(-1)!) }, movements };
+    await auditAs(trx, user!, "pilot.simulate", studyId, { participants: v.participants, spread: v.spread, included: v.include, codes, minutesMedian: summary.minutes.median });
+    return summary;
+  });
   return summary;
 }

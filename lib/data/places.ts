@@ -77,13 +77,11 @@ export async function startTasks(db: Knex, ctx: SessionContext, now = new Date()
       cb_slot: slot, cb_row: pilot ? null : row, condition_order: JSON.stringify(labels), between_levels: JSON.stringify(betweenLevelsFor(ctx.design, index)),
       status: "in_progress", started_at: now, last_activity_at: now,
     });
+    // row and place counted from 1, as the design and participants pages show them; the entry commits with the start
+    const placed = pilot ? { pilot: true } : { row: row + 1, place: slot! + 1 };
+    await appendAudit(trx, { actorUserId: null, actorLabel: `participant ${ctx.participant.code}`, action: "participant.started", studyId: ctx.study.id, details: { participant: ctx.participant.code, ...placed } });
     return { order: labels, row: pilot ? null : row, slot, fresh: true };
   });
-  if (result.fresh) {
-    // row and place counted from 1, as the design and participants pages show them
-    const placed = result.row === null || result.slot === null ? {} : { row: result.row + 1, place: result.slot + 1 };
-    await appendAudit(db, { actorUserId: null, actorLabel: `participant ${ctx.participant.code}`, action: "participant.started", studyId: ctx.study.id, details: { participant: ctx.participant.code, ...(pilot ? { pilot: true } : placed) } });
-  }
   return { order: result.order, row: result.row };
 }
 

@@ -140,22 +140,30 @@ export async function createInvitations(db: Knex, user: SessionUser | null, stud
   if (v.mode === "links") {
     await db.transaction(async (trx) => {
       for (let i = 0; i < v.count; i++) made.push(await insertParticipant(trx, studyId, "link"));
+      await auditAs(trx, user!, "invitation.links", studyId, { count: made.length, codes: made.map((m) => m.code) });
     });
-    await auditAs(db, user!, "invitation.links", studyId, { count: made.length, codes: made.map((m) => m.code) });
     return made;
   }
   const compose = await invitationComposer(db, studyId, user!.name);
-  for (const email of v.emails) {
-    const p = await db.transaction(async (trx) => {
+  // every invitation and its entry commit together; the mails go out afterwards (a failed send is
+  // recorded in the mail log, and the invitation can be sent again)
+  const addressed = await db.transaction(async (trx) => {
+    const addressed: { email: string; p: NewParticipant }[] = [];
+    for (const email of v.emails) {
       const p = await insertParticipant(trx, studyId, "email");
       await trx("participant_contacts").insert({ participant_id: p.id, email_encrypted: sealWithDataKey(email.trim().toLowerCase()), token_encrypted: sealWithDataKey(p.token), sent_count: 1, last_sent_at: new Date() });
-      return p;
-    });
+      addressed.push({ email, p });
+    }
+    await auditAs(trx, user!, "invitation.email", studyId, { count: addressed.length, codes: addressed.map((a) => a.p.code) });
+    return addressed;
+  });
+  let failure: unknown = null;
+  for (const { email, p } of addressed) {
     const mail = compose(p.link, false);
-    await sendMail({ to: email, subject: mail.subject, text: mail.text, template: "study-invitation", participantId: p.id });
+    await sendMail({ to: email, subject: mail.subject, text: mail.text, template: "study-invitation", participantId: p.id }).catch((e: unknown) => { failure ??= e; });
     made.push(p);
   }
-  await auditAs(db, user!, "invitation.email", studyId, { count: made.length, codes: made.map((m) => m.code) });
+  if (failure) throw failure;
   return made;
 }
 
@@ -201,9 +209,10 @@ export async function visitPublicLink(db: Knex, publicToken: string, options: { 
       throw conflict("This panel id has already started this study, in another browser or tab: please continue there.");
     }
     await assertCapRoom(trx, study.id, now);
-    return insertParticipant(trx, study.id, "public", { last_activity_at: now, ...(panelId ? { panel_id_encrypted: sealWithDataKey(panelId), panel_id_hmac: hmac } : {}) });
+    const p = await insertParticipant(trx, study.id, "public", { last_activity_at: now, ...(panelId ? { panel_id_encrypted: sealWithDataKey(panelId), panel_id_hmac: hmac } : {}) });
+    await appendAudit(trx, { actorUserId: null, actorLabel: "participant", action: "invitation.public_visit", studyId: study.id, details: { code: p.code, panel: panelId !== null } });
+    return p;
   });
-  await appendAudit(db, { actorUserId: null, actorLabel: "participant", action: "invitation.public_visit", studyId: study.id, details: { code: p.code, panel: panelId !== null } });
   return p;
 }
 
@@ -263,7 +272,10 @@ export async function manageInvitation(db: Knex, user: SessionUser | null, study
   if (p.revoked_at) throw conflict("This invitation was revoked.");
   if (action === "revoke") {
     if (p.status !== "invited") throw conflict(`${p.code} has already started; they can withdraw, or you can exclude their data.`);
-    await db("participants").where({ id: p.id, status: "invited" }).update({ revoked_at: new Date() });
+    await db.transaction(async (trx) => {
+      await trx("participants").where({ id: p.id, status: "invited" }).update({ revoked_at: new Date() });
+      await auditAs(trx, user!, "invitation.revoke", studyId, { code: p.code });
+    });
   } else {
     if (!p.email_encrypted || !p.token_encrypted) throw conflict("Only e-mail invitations made since reminders exist can be sent again; make a new link instead.");
     if (action === "resend" && p.status !== "invited") throw conflict(`${p.code} has already opened the invitation: send a reminder instead.`);
@@ -272,8 +284,11 @@ export async function manageInvitation(db: Knex, user: SessionUser | null, study
     if (study?.status !== "recruiting") throw conflict("Recruitment is not open.");
     const mail = (await invitationComposer(db, studyId, user!.name))(sessionLink(openWithDataKey(p.token_encrypted)), action === "remind");
     await sendMail({ to: openWithDataKey(p.email_encrypted), subject: mail.subject, text: mail.text, template: action === "remind" ? "study-reminder" : "study-invitation", participantId: p.id });
-    await db("participant_contacts").where({ participant_id: p.id }).update({ sent_count: db.raw("sent_count + 1"), last_sent_at: new Date() });
+    // the mail itself cannot be taken back; its count and its entry commit together
+    await db.transaction(async (trx) => {
+      await trx("participant_contacts").where({ participant_id: p.id }).update({ sent_count: trx.raw("sent_count + 1"), last_sent_at: new Date() });
+      await auditAs(trx, user!, `invitation.${action}`, studyId, { code: p.code });
+    });
   }
-  await auditAs(db, user!, `invitation.${action}`, studyId, { code: p.code });
   return (await listInvitations(db, studyId, false)).find((i) => i.participantId === p.id)!;
 }

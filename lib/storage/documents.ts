@@ -31,13 +31,15 @@ export async function saveDocument(db: Knex, store: BlobStore, user: SessionUser
   await store.put(key, file.bytes, mime);
   let id: number;
   try {
-    const [newId] = await db("study_documents").insert({ study_id: studyId, kind: file.kind, filename: safeName(file.name), mime_type: mime, size_bytes: file.bytes.length, sha256, storage_key: key, uploaded_by: user!.id });
-    id = Number(newId);
+    id = await db.transaction(async (trx) => {
+      const [newId] = await trx("study_documents").insert({ study_id: studyId, kind: file.kind, filename: safeName(file.name), mime_type: mime, size_bytes: file.bytes.length, sha256, storage_key: key, uploaded_by: user!.id });
+      await auditAs(trx, user!, "document.upload", studyId, { documentId: Number(newId), kind: file.kind, filename: safeName(file.name), sha256, sizeBytes: file.bytes.length });
+      return Number(newId);
+    });
   } catch (e) {
     await store.delete(key);
     throw e;
   }
-  await auditAs(db, user!, "document.upload", studyId, { documentId: id, kind: file.kind, filename: safeName(file.name), sha256, sizeBytes: file.bytes.length });
   return (await listDocuments(db, studyId)).find((d) => d.id === id)!;
 }
 

@@ -5,7 +5,6 @@ import { headers } from "next/headers";
 import { startPasswordReset } from "@/lib/accounts/users";
 import { clientAddress } from "@/lib/auth/rate-limit";
 import { db } from "@/lib/db";
-import { appendAudit } from "@/lib/data/audit";
 import { resetPasswordSchema, resetRequestSchema } from "@/lib/schemas/users";
 
 /** The one answer to every reset request. */
@@ -30,6 +29,5 @@ export async function setPasswordAction(_prev: FormState, form: FormData): Promi
   }
   const userId = await consumePasswordToken(db, parsed.data.token, parsed.data.password);
   if (userId === null) return { message: "This link has expired or has been used already. Ask for a new one." };
-  await appendAudit(db, { actorUserId: userId, actorLabel: `user ${userId}`, action: "user.password_set", details: {} });
   return { ok: true, message: "Your password is set. You can sign in now." };
 }

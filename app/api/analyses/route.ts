@@ -49,8 +49,14 @@ export const POST = route(async (request: Request) => {
     await mkdir(dir, { recursive: true });
     const storageKey = `imports/${upload.sha256}-${Date.now()}.csv`;
     await rename(upload.path, resolve(env.STORAGE_DIR, storageKey));
-    const id = await insertImport(db, { userId: user.id, filename: upload.filename, sizeBytes: upload.size, sha256: upload.sha256, storageKey, options, result });
-    await appendAudit(db, { actorUserId: user.id, actorLabel: user.email, action: "analysis.import", details: { importId: id, filename: upload.filename, sha256: upload.sha256, movements: result.movements } });
+    const id = await db.transaction(async (trx) => {
+      const id = await insertImport(trx, { userId: user.id, filename: upload.filename, sizeBytes: upload.size, sha256: upload.sha256, storageKey, options, result });
+      await appendAudit(trx, { actorUserId: user.id, actorLabel: user.email, action: "analysis.import", details: { importId: id, filename: upload.filename, sha256: upload.sha256, movements: result.movements } });
+      return id;
+    }).catch(async (e: unknown) => {
+      await rm(resolve(env.STORAGE_DIR, storageKey), { force: true });
+      throw e;
+    });
     return Response.json({ id, ...result }, { status: 201 });
   } catch (e) {
     await rm(upload.path, { force: true });

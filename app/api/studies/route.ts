@@ -15,7 +15,10 @@ export const GET = route(async () => {
 export const POST = route(async (request: Request) => {
   const user = requireRole(await getCurrentUser(), "researcher");
   const input = await readJson(request, createStudySchema);
-  const id = await insertStudy(db, { ...input, ownerId: user.id });
-  await appendAudit(db, { actorUserId: user.id, actorLabel: user.email, action: "study.create", studyId: id, details: { title: input.title } });
+  const id = await db.transaction(async (trx) => {
+    const id = await insertStudy(trx, { ...input, ownerId: user.id });
+    await appendAudit(trx, { actorUserId: user.id, actorLabel: user.email, action: "study.create", studyId: id, details: { title: input.title } });
+    return id;
+  });
   return Response.json({ study: await fetchStudy(db, id) }, { status: 201 });
 });

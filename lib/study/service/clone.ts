@@ -25,9 +25,9 @@ export async function cloneStudy(db: Knex, user: SessionUser | null, studyId: nu
       invitation_text: working.invitationText, erasure_window_days: working.erasureWindowDays,
     });
     if (working.consentBody) await trx("consent_versions").insert({ study_id: id, version: 1, body_md: working.consentBody, status: "draft", created_by: researcher.id });
+    await auditAs(trx, researcher, "study.clone", studyId, { to: id });
+    await auditAs(trx, researcher, "study.create", id, { clonedFrom: studyId, title: `${study.title} (copy)`.slice(0, 200) });
     return id;
   });
-  await auditAs(db, researcher, "study.clone", studyId, { to: id });
-  await auditAs(db, researcher, "study.create", id, { clonedFrom: studyId, title: `${study.title} (copy)`.slice(0, 200) });
   return { id };
 }

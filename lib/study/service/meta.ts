@@ -21,9 +21,11 @@ export async function updateStudyMeta(db: Knex, user: SessionUser | null, studyI
     const lock = await editLock(db, study, "participant information");
     if (lock) throw conflict(lock);
   }
-  await db("studies").where({ id: studyId }).update({ title: v.title, summary: v.summary, protocol_number: v.protocolNumber, updated_at: db.fn.now(3) });
   const inForce = await fetchInForceVersion(db, studyId);
-  await auditAs(db, user!, "study.update", studyId, { title: v.title, protocolNumber: v.protocolNumber, ...(inForce ? { amendsVersion: inForce.version } : {}) });
+  await db.transaction(async (trx) => {
+    await trx("studies").where({ id: studyId }).update({ title: v.title, summary: v.summary, protocol_number: v.protocolNumber, updated_at: trx.fn.now(3) });
+    await auditAs(trx, user!, "study.update", studyId, { title: v.title, protocolNumber: v.protocolNumber, ...(inForce ? { amendsVersion: inForce.version } : {}) });
+  });
   return (await fetchStudy(db, studyId))!;
 }
 
@@ -33,9 +35,11 @@ export async function saveInvitationText(db: Knex, user: SessionUser | null, stu
   const lock = await editLock(db, study, "invitation text");
   if (lock) throw conflict(lock);
   const { text } = invitationTextSchema.parse(input);
-  await db("studies").where({ id: studyId }).update({ invitation_text: text, updated_at: db.fn.now(3) });
   const inForce = await fetchInForceVersion(db, studyId);
-  await auditAs(db, user!, "study.invitation_text", studyId, { characters: text.length, ...(inForce ? { amendsVersion: inForce.version } : {}) });
+  await db.transaction(async (trx) => {
+    await trx("studies").where({ id: studyId }).update({ invitation_text: text, updated_at: trx.fn.now(3) });
+    await auditAs(trx, user!, "study.invitation_text", studyId, { characters: text.length, ...(inForce ? { amendsVersion: inForce.version } : {}) });
+  });
   return { text };
 }
 
@@ -54,7 +58,9 @@ export async function setTeamMember(db: Knex, user: SessionUser | null, studyId:
   if (!person || !person.active) throw notFound("No active account has that e-mail address.");
   if (person.role !== "researcher") throw unprocessable("Only researchers can join a study's team; reviewers stay independent of the studies they review.", [{ path: "email", message: "not a researcher" }]);
   if (person.id === study.ownerId) throw conflict("The owner is already on the team.");
-  await addTeamMember(db, studyId, person.id, v.role);
-  await auditAs(db, user!, "team.set", studyId, { userId: person.id, role: v.role });
+  await db.transaction(async (trx) => {
+    await addTeamMember(trx, studyId, person.id, v.role);
+    await auditAs(trx, user!, "team.set", studyId, { userId: person.id, role: v.role });
+  });
   return listTeam(db, studyId);
 }

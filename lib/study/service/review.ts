@@ -100,9 +100,10 @@ export async function submitForReview(db: Knex, user: SessionUser | null, studyI
       study_id: studyId, consent_version_id: consent.id, design_hash: working.designHash, submitted_by: user!.id, version,
       title: working.title, summary: working.summary, design: JSON.stringify(working.design), invitation_text: working.invitationText, erasure_window_days: working.erasureWindowDays,
     });
+    // the entry commits with the submission (last: the audit head's lock after the action's own)
+    await auditAs(trx, user!, "review.submit", studyId, { reviewId: Number(id), protocolVersion: version, consentVersion: consent.version, consentSha256: hash, designHash: working.designHash, ...(inForce ? { amendsVersion: inForce.version } : {}) });
     return { reviewId: Number(id), version, hash };
   });
-  await auditAs(db, user!, "review.submit", studyId, { reviewId, protocolVersion: version, consentVersion: consent.version, consentSha256: hash, designHash: working.designHash, ...(inForce ? { amendsVersion: inForce.version } : {}) });
   return (await listReviews(db, studyId)).find((r) => r.id === reviewId)!;
 }
 
@@ -133,7 +134,7 @@ export async function decideReview(db: Knex, user: SessionUser | null, studyId: 
       if (m !== 1) throw conflict("The study changed meanwhile; reload and decide again.");
     }
     else await trx("studies").where({ id: studyId }).update({ updated_at: trx.fn.now(3) });
+    await auditAs(trx, reviewer, approved ? "review.approve" : "review.return", studyId, { reviewId: open.id, protocolVersion: open.version, consentVersionId: open.consent_version_id, designHash: open.design_hash, comment: v.comment });
   });
-  await auditAs(db, reviewer, approved ? "review.approve" : "review.return", studyId, { reviewId: open.id, protocolVersion: open.version, consentVersionId: open.consent_version_id, designHash: open.design_hash, comment: v.comment });
   return (await listReviews(db, studyId)).find((r) => r.id === open.id)!;
 }
