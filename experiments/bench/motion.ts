@@ -2,10 +2,16 @@
 // 1. The engine as it ships: lib/motion/engine.ts bundled with esbuild (scope-hoisted, as the
 //    replay CLI and the participant page run it; through tsx every cross-module call would go
 //    through an export getter). Each configuration of `configurations` once, to find the most
-//    expensive; then 10 M samples × BENCH_RUNS through it: ns per sample (median), heap
-//    before/after (after GC), garbage collections during the timed loop (none = no allocation).
-//    ns per sample twice: wall clock, and this process's CPU time (user + system), which on a
-//    shared, loaded machine leaves out the time the process waited for a core.
+//    expensive; then 10 M samples × BENCH_RUNS through it. Before timing, each engine is warmed
+//    up on the same varied input the timed loop uses (an engine warmed on zeros meets its first
+//    stick at the rim, slow rotation, clutch… in the timed loop, leaves optimised code there and
+//    allocates while it recompiles). Reported per run: ns per sample twice (wall clock, and this
+//    process's CPU time, user + system, which on a shared, loaded machine leaves out the time
+//    the process waited for a core); heap used before and right after the timed loop (no GC in
+//    between: what the loop left in the young generation, per sample) and after a forced GC
+//    (growth); the garbage collections during the loop by kind (PerformanceObserver 'gc'
+//    entries): minor (scavenge) collections are what allocation on the hot path causes; major
+//    ones can also come from V8's idle-time memory reducer while the loop yields between chunks.
 // 2. Replay of a 1 M-sample CSV end to end, started as `npm run replay` starts it
 //    (`node experiments/cli/run.mjs replay`, a fresh process each run, output to /dev/null): wall
 //    time, median of several runs; also the in-process parts and the start-up alone.
@@ -14,7 +20,7 @@ import { mkdtempSync, openSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { pathToFileURL } from "node:url";
-import { PerformanceObserver } from "node:perf_hooks";
+import { constants as perfConstants, PerformanceObserver } from "node:perf_hooks";
 import { setFlagsFromString } from "node:v8";
 import { writeMillionths, writeNumberText } from "../cli/writeMillionths";
 import { runInNewContext } from "node:vm";
@@ -66,14 +72,15 @@ for (let i = 0; i < POOL; i++) {
 }
 
 const CHUNK = 500_000;
+const WARM_UP = 300_000;
 
 /** Samples start..end through the engine, timed (a plain function: nothing here lives across an await). */
 function timedChunk(engine: ReturnType<typeof createMotionEngine>, s: MotionSample, start: number, end: number, sum: { checksum: number; cpuUs: number }): bigint {
   const c0 = process.cpuUsage();
   const t0 = process.hrtime.bigint();
   for (let i = start; i < end; i++) {
-    const k = i & (POOL - 1);
-    s.tMs = 400_000 + i * 4;
+    const k = (i + WARM_UP) & (POOL - 1);
+    s.tMs = 4_000_000 + i * 4;
     s.gyroX = pool.gx[k] as number;
     s.gyroY = pool.gy[k] as number;
     s.gyroZ = pool.gz[k] as number;
@@ -99,28 +106,34 @@ function timedChunk(engine: ReturnType<typeof createMotionEngine>, s: MotionSamp
  * the timed part) so that garbage-collection entries reach the observer: a loop that never yields
  * would see none.
  */
-async function engineRun(config: TransferConfigInput, n: number): Promise<{ nsPerSample: number; cpuNsPerSample: number; heapBefore: number; heapAfter: number; gcs: number; checksum: number }> {
+async function engineRun(config: TransferConfigInput, n: number): Promise<{ nsPerSample: number; cpuNsPerSample: number; heapBefore: number; heapAfter: number; bytesPerSample: number; minorGcs: number; majorGcs: number; checksum: number }> {
   const engine = createMotionEngine(config);
   const s: MotionSample = { tMs: 0, gyroX: 0, gyroY: 0, gyroZ: 0, accelX: 0, accelY: 9.8, accelZ: 0, stickX: 0, stickY: 0, buttons: 0, pointerDx: 0, pointerDy: 0, pointerX: 0, pointerY: 0, screenAngleDeg: 90 };
-  for (let i = 0; i < 100_000; i++) {
-    s.tMs = i * 4;
-    engine.push(s);
-  }
+  const sum = { checksum: 0, cpuUs: 0 };
+  // warm-up on the timed loop's own input (times before the timed part's, which starts at i = 0)
+  timedChunk(engine, s, -WARM_UP, 0, sum);
+  sum.cpuUs = 0;
   gc();
   const heapBefore = process.memoryUsage().heapUsed;
-  let gcs = 0;
-  const obs = new PerformanceObserver((list) => (gcs += list.getEntries().length));
+  let minorGcs = 0, majorGcs = 0;
+  const obs = new PerformanceObserver((list) => {
+    for (const e of list.getEntries()) {
+      if ((e as PerformanceEntry & { detail?: { kind?: number } }).detail?.kind === perfConstants.NODE_PERFORMANCE_GC_MINOR) minorGcs++;
+      else majorGcs++;
+    }
+  });
   obs.observe({ entryTypes: ["gc"] });
-  const sum = { checksum: 0, cpuUs: 0 };
-  let elapsed = 0n;
+  let elapsed = 0n, heapLeft = 0;
   for (let start = 0; start < n; start += CHUNK) {
+    const before = process.memoryUsage().heapUsed;
     elapsed += timedChunk(engine, s, start, Math.min(n, start + CHUNK), sum);
+    heapLeft += process.memoryUsage().heapUsed - before;
     await new Promise((resolve) => setImmediate(resolve));
   }
   await new Promise((resolve) => setTimeout(resolve, 20));
   obs.disconnect();
   gc();
-  return { nsPerSample: Number(elapsed) / n, cpuNsPerSample: (sum.cpuUs * 1000) / n, heapBefore, heapAfter: process.memoryUsage().heapUsed, gcs, checksum: sum.checksum };
+  return { nsPerSample: Number(elapsed) / n, cpuNsPerSample: (sum.cpuUs * 1000) / n, heapBefore, heapAfter: process.memoryUsage().heapUsed, bytesPerSample: heapLeft / n, minorGcs, majorGcs, checksum: sum.checksum };
 }
 
 function writeCsv(path: string, rows: number): void {
@@ -143,7 +156,7 @@ console.log(`motion engine (bundled), each configuration once, 2,000,000 samples
 let expensiveName = "", slowest = 0;
 for (const [name, config] of Object.entries(configurations)) {
   const r = await engineRun(config, 2_000_000);
-  console.log(`  ${name}: ${r.nsPerSample.toFixed(1)} ns/sample (CPU ${r.cpuNsPerSample.toFixed(1)}), GCs ${r.gcs}`);
+  console.log(`  ${name}: ${r.nsPerSample.toFixed(1)} ns/sample wall, ${r.cpuNsPerSample.toFixed(1)} CPU; GCs minor ${r.minorGcs}, major ${r.majorGcs}`);
   if (r.cpuNsPerSample > slowest) {
     slowest = r.cpuNsPerSample;
     expensiveName = name;
@@ -155,10 +168,10 @@ const results = [];
 for (let r = 0; r < runs; r++) {
   const res = await engineRun(expensive, N);
   results.push(res);
-  console.log(`  run ${r + 1}: ${res.nsPerSample.toFixed(1)} ns/sample (CPU ${res.cpuNsPerSample.toFixed(1)}), heap ${(res.heapBefore / 1e6).toFixed(2)} → ${(res.heapAfter / 1e6).toFixed(2)} MB, GCs during run: ${res.gcs}`);
+  console.log(`  run ${r + 1}: ${res.nsPerSample.toFixed(1)} ns/sample wall, ${res.cpuNsPerSample.toFixed(1)} CPU; heap used ${(res.heapBefore / 1e6).toFixed(2)} MB before → ${(res.heapAfter / 1e6).toFixed(2)} MB after (both after a full GC), left by the loop ${res.bytesPerSample.toFixed(3)} B/sample; GCs during the run: minor ${res.minorGcs}, major ${res.majorGcs}`);
 }
 const medNs = median(results.map((r) => r.nsPerSample)), medCpuNs = median(results.map((r) => r.cpuNsPerSample));
-console.log(`  median ${medNs.toFixed(1)} ns/sample wall (budget 1000 ns: ratio ${(medNs / 1000).toFixed(3)}), ${medCpuNs.toFixed(1)} ns/sample CPU (ratio ${(medCpuNs / 1000).toFixed(3)}); median heap growth ${(median(results.map((r) => r.heapAfter - r.heapBefore)) / 1e3).toFixed(1)} kB; median GCs ${median(results.map((r) => r.gcs))}; load average ${readFileSync("/proc/loadavg", "utf8").split(" ").slice(0, 3).join(" ")}`);
+console.log(`  median ${medNs.toFixed(1)} ns/sample wall (budget 1000 ns: ratio ${(medNs / 1000).toFixed(3)}), ${medCpuNs.toFixed(1)} ns/sample CPU (ratio ${(medCpuNs / 1000).toFixed(3)}); median heap growth ${(median(results.map((r) => r.heapAfter - r.heapBefore)) / 1e3).toFixed(1)} kB; median GCs minor ${median(results.map((r) => r.minorGcs))}, major ${median(results.map((r) => r.majorGcs))}; load average ${readFileSync("/proc/loadavg", "utf8").split(" ").slice(0, 3).join(" ")}`);
 
 const dir = mkdtempSync(join(tmpdir(), "bench-motion-"));
 const csv = join(dir, "samples.csv"), cfg = join(dir, "config.json");

@@ -1,3 +1,5 @@
+import { positivePower } from "./positivePower";
+
 /**
  * Power-curve gain factor (powerGainFactor).
  *
@@ -9,5 +11,5 @@
  */
 export function powerGainFactor(speed: number, referenceSpeed: number, exponent: number): number {
   if (exponent === 1) return 1;
-  return Math.pow(speed / referenceSpeed, exponent - 1);
+  return positivePower(speed / referenceSpeed, exponent - 1);
 }

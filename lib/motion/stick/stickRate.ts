@@ -1,3 +1,5 @@
+import { positivePower } from "../gain/positivePower";
+
 /**
  * Stick rate magnitude (stickRateMagnitude).
  *
@@ -12,5 +14,5 @@ export function stickRateMagnitude(radius: number, deadZone: number, outerEdge: 
   if (radius <= deadZone) return 0;
   if (radius >= outerEdge) return maxRate;
   const m = (radius - deadZone) / (outerEdge - deadZone);
-  return Math.pow(m, exponent) * maxRate;
+  return positivePower(m, exponent) * maxRate;
 }
