@@ -26,6 +26,20 @@ export async function admitUpload(q: Queryable, participantId: number, now = Dat
   const limit = uploadLinkLimit();
   return (await hitLimit(q, limit, `participant:${participantId}`, now)).within ? null : secondsToNextWindow(limit, now);
 }
+/**
+ * Starts through a study's public link per client address in 10 minutes. Each start makes a
+ * participant and an audit entry for someone nobody invited, so a visitor who throws away the
+ * visitor cookie cannot flood either; a lab running people one after another on its machines
+ * behind one address stays well within it (common practice: a few per minute per address).
+ */
+export const PUBLIC_START_LIMIT: Limit = { name: "public start", max: 30, windowMs: 10 * 60_000 };
+/**
+ * Counts a public link's Start against the client address's limit for that study (admitPublicStart).
+ * @returns null when it may go on, else the seconds to wait.
+ */
+export async function admitPublicStart(q: Queryable, studyId: number, address: string, now = Date.now()): Promise<number | null> {
+  return (await hitLimit(q, PUBLIC_START_LIMIT, `study:${studyId}:${address}`, now)).within ? null : secondsToNextWindow(PUBLIC_START_LIMIT, now);
+}
 /** For the messages that quote it. */
 export const SIGN_IN_LIMIT = { failures: SIGN_IN_ACCOUNT_LIMIT.max, windowMinutes: SIGN_IN_ACCOUNT_LIMIT.windowMs / 60_000 };
 

@@ -1,6 +1,7 @@
 import { cookies } from "next/headers";
 import { z } from "zod";
 import { readForm } from "@/lib/api/body";
+import { admitPublicStart, clientAddress } from "@/lib/auth/rate-limit";
 import { db } from "@/lib/db";
 import { AppError } from "@/lib/errors";
 import { PANEL_ID_PATTERN, rememberedVisit, visitorCookieName } from "@/lib/recruitment/publicVisit";
@@ -42,6 +43,13 @@ export async function POST(request: Request, context: Ctx): Promise<Response> {
     form = await readForm(request, FORM_LIMIT);
   } catch (e) {
     return page(e instanceof AppError ? e.status : 400, "This request is not the study's Start form.");
+  }
+  // a resumed visit costs nothing; a new participant (and its audit entry) counts against the address
+  const wait = await admitPublicStart(db, study.id, clientAddress(request.headers));
+  if (wait !== null) {
+    const res = page(429, `Too many starts from your network in a short time. Please try again in ${Math.ceil(wait / 60)} minute${wait > 60 ? "s" : ""}.`);
+    res.headers.set("retry-after", String(wait));
+    return res;
   }
   const raw = form.get("panel_id")?.trim() ?? "";
   const panelId = PANEL_ID_PATTERN.test(raw) ? raw : null;
