@@ -8,6 +8,8 @@
  *   tsx scripts/db.ts status
  *
  * It never touches a system MariaDB: its own data directory, socket and port (default 3307).
+ * DB_DATA_DIR names another data directory (the log beside it): a second, separate instance on
+ * another DB_PORT, which the reliability tests start, restart and stop on their own.
  */
 import { spawn, spawnSync } from "node:child_process";
 import { existsSync, mkdirSync, openSync, readFileSync } from "node:fs";
@@ -18,10 +20,10 @@ import { parseEnv } from "../lib/env";
 
 const env = parseEnv(process.env);
 const root = resolve(import.meta.dirname, "..");
-const dataDir = resolve(root, ".data/mariadb");
+const dataDir = process.env.DB_DATA_DIR ? resolve(process.env.DB_DATA_DIR) : resolve(root, ".data/mariadb");
 const socket = resolve(dataDir, "mysqld.sock");
 const pidFile = resolve(dataDir, "mysqld.pid");
-const logFile = resolve(root, ".data/mariadb.log");
+const logFile = process.env.DB_DATA_DIR ? `${dataDir}.log` : resolve(root, ".data/mariadb.log");
 
 function which(cmd: string): string | null {
   for (const dir of ["/usr/sbin", "/usr/bin", "/usr/local/sbin", "/usr/local/bin", ...(process.env.PATH ?? "").split(":")]) {

@@ -13,8 +13,8 @@ export const demo = (role: DemoRole) => {
 };
 
 /** An API client signed in through next-auth's credentials flow, as the browser does it. */
-export async function apiAs(email: string, password: string): Promise<APIRequestContext> {
-  const ctx = await playwrightRequest.newContext({ baseURL });
+export async function apiAs(email: string, password: string, base: string = baseURL): Promise<APIRequestContext> {
+  const ctx = await playwrightRequest.newContext({ baseURL: base });
   const { csrfToken } = (await (await ctx.get("/api/auth/csrf")).json()) as { csrfToken: string };
   const res = await ctx.post("/api/auth/callback/credentials", { form: { csrfToken, email, password, json: "true" } });
   expect(res.status(), `sign-in of ${email}`).toBe(200);

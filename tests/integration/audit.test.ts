@@ -39,18 +39,18 @@ describe("audit chain", () => {
 
   it("appends concurrently without forking, verifies intact, and names the first tampered entry", async () => {
     await resetLog();
-    await Promise.all(Array.from({ length: 40 }, (_, i) => appendAudit(db, { actorUserId: null, actorLabel: "system", action: "test.append", details: { i } })));
+    await Promise.all(Array.from({ length: 100 }, (_, i) => appendAudit(db, { actorUserId: null, actorLabel: "system", action: "test.append", details: { i } })));
     const rows = await owner<Row>("audit_log").orderBy("id");
     expect(rows[0]!.prev_hash).toBe(GENESIS_HASH);
     for (let i = 1; i < rows.length; i++) expect(rows[i]!.prev_hash).toBe(rows[i - 1]!.hash);
-    expect(await fetchAuditHead(db)).toEqual({ lastId: rows.at(-1)!.id, hash: rows.at(-1)!.hash, entries: 40 });
-    expect(await verifyAuditChain(db)).toMatchObject({ intact: true, entries: 40 });
+    expect(await fetchAuditHead(db)).toEqual({ lastId: rows.at(-1)!.id, hash: rows.at(-1)!.hash, entries: 100 });
+    expect(await verifyAuditChain(db)).toMatchObject({ intact: true, entries: 100 });
 
     const victim = rows[5]!;
     await owner("audit_log").where({ id: victim.id }).update({ details: JSON.stringify({ i: 999 }) });
     expect(await verifyAuditChain(db)).toMatchObject({ intact: false, firstBrokenId: victim.id });
     await owner("audit_log").where({ id: victim.id }).update({ details: JSON.stringify(details(victim)) });
-    expect(await verifyAuditChain(db)).toMatchObject({ intact: true, entries: 40 });
+    expect(await verifyAuditChain(db)).toMatchObject({ intact: true, entries: 100 });
     await owner("audit_log").where({ id: rows[28]!.id }).delete();
     expect(await verifyAuditChain(db)).toMatchObject({ intact: false, firstBrokenId: rows[29]!.id });
   });

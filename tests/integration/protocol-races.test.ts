@@ -43,8 +43,8 @@ async function draftStudy(k: number): Promise<number> {
 const settle = (p: Promise<unknown>) => p.then(() => "ok", (e: { status?: number }) => e.status ?? e);
 
 describe("the consent text frozen by a submission", () => {
-  it("attack: saves racing the submission (40 studies at once) never leave a frozen text whose fingerprint is another text's", async () => {
-    const studies = await Promise.all(Array.from({ length: 40 }, (_, k) => draftStudy(k)));
+  it("attack: saves racing the submission (100 studies at once) never leave a frozen text whose fingerprint is another text's", async () => {
+    const studies = await Promise.all(Array.from({ length: 100 }, (_, k) => draftStudy(k)));
     // the submission first, the saves a few milliseconds later (spread over its reads and its transaction)
     const later = (ms: number, f: () => Promise<unknown>) => new Promise((r) => setTimeout(r, ms)).then(f);
     const outcomes = await Promise.all(studies.map((id, k) => Promise.all([
@@ -93,15 +93,15 @@ describe("the consent text frozen by a submission", () => {
 });
 
 describe("opening recruitment", () => {
-  it("attack: 50 parallel opens and closes of an approved study: one opens, the rest are refused with 409, and one entry is logged", async () => {
+  it("attack: 100 parallel opens and closes of an approved study: one opens, the rest are refused with 409, and one entry is logged", async () => {
     const id = await draftStudy(9999);
     await submitForReview(db, owner, id);
     await decideReview(db, reviewer, id, { decision: "approve", comment: "" });
-    const outcomes = await Promise.all(Array.from({ length: 50 }, () => settle(changeRecruitment(db, owner, id, { action: "open" }))));
+    const outcomes = await Promise.all(Array.from({ length: 100 }, () => settle(changeRecruitment(db, owner, id, { action: "open" }))));
     expect(outcomes.filter((o) => o === "ok")).toHaveLength(1);
-    expect(outcomes.filter((o) => o === 409)).toHaveLength(49);
+    expect(outcomes.filter((o) => o === 409)).toHaveLength(99);
     expect(await db("audit_log").where({ study_id: id, action: "recruitment.open" }).count({ n: "*" })).toEqual([{ n: 1 }]);
-    const closes = await Promise.all(Array.from({ length: 20 }, () => settle(changeRecruitment(db, owner, id, { action: "close" }))));
+    const closes = await Promise.all(Array.from({ length: 100 }, () => settle(changeRecruitment(db, owner, id, { action: "close" }))));
     expect(closes.filter((o) => o === "ok")).toHaveLength(1);
     expect((await db("studies").where({ id }).first()).status).toBe("closed");
   });
