@@ -139,6 +139,7 @@ export function CalibrationStep(props: { motion: boolean; unit: "px" | "mm" | "d
   const [blind, setBlind] = useState<number[]>([]);
   const [dotPx, setDotPx] = useState<number | null>(null);
   const stopRef = useRef<(() => void) | null>(null);
+  const areaRef = useRef<HTMLDivElement>(null);
   const onDone = props.onDone;
   const nextPart = (): void => {
     if (index + 1 < parts.length) setIndex(index + 1);
@@ -174,11 +175,25 @@ export function CalibrationStep(props: { motion: boolean; unit: "px" | "mm" | "d
   const runBlind = (): void => {
     // the dot starts beside the fixation square and moves left, into the left eye's blind spot
     const started = performance.now();
-    const id = setInterval(() => setDotPx(20 + ((performance.now() - started) / 1000) * BLIND_DOT_PX_PER_S), 30);
-    const stop = async (): Promise<void> => {
+    setMessage(null);
+    const id = setInterval(() => {
+      const d = 20 + ((performance.now() - started) / 1000) * BLIND_DOT_PX_PER_S;
+      // the dot would leave the grey area before it vanished: a disappearance there is the edge, not the blind spot
+      if (16 + 12 + d + 16 > (areaRef.current?.clientWidth ?? Infinity)) {
+        end();
+        setDotPx(null);
+        setMessage("The dot reached the edge of the screen before it disappeared. Hold the screen a little closer (or turn the device sideways) and start again.");
+        return;
+      }
+      setDotPx(d);
+    }, 30);
+    const end = (): void => {
       clearInterval(id);
       stopRef.current = null;
       window.removeEventListener("keydown", onKey);
+    };
+    const stop = async (): Promise<void> => {
+      end();
       const d = 20 + ((performance.now() - started) / 1000) * BLIND_DOT_PX_PER_S;
       setDotPx(null);
       const all = [...blind, d];
@@ -228,10 +243,10 @@ export function CalibrationStep(props: { motion: boolean; unit: "px" | "mm" | "d
         <>
           <h2 className="font-semibold">{number} Viewing distance</h2>
           <p>Sit as you will during the task. Close your <strong>right</strong> eye and look at the black square with your <strong>left</strong> eye. A red dot moves to the left, away from the square; the moment it disappears, tap the grey area (or press Space). ({blind.length} of 5)</p>
-          <div className="relative h-24 w-full touch-none overflow-hidden rounded bg-slate-100" data-testid="blind-spot-area"
+          <div ref={areaRef} className="relative h-24 w-full touch-none overflow-hidden rounded bg-slate-100" data-testid="blind-spot-area"
             onPointerDown={() => stopRef.current?.()}>
-            <div className="absolute right-4 top-8 h-6 w-6 bg-black" />
-            {dotPx !== null && <div className="absolute top-9 h-4 w-4 rounded-full bg-red-600" style={{ right: 16 + 12 + dotPx }} />}
+            <div className="absolute right-4 top-8 h-6 w-6 bg-black" data-testid="blind-spot-square" />
+            {dotPx !== null && <div className="absolute top-9 h-4 w-4 rounded-full bg-red-600" data-testid="blind-spot-dot" style={{ right: 16 + 12 + dotPx }} />}
           </div>
           <button type="button" className="btn w-full sm:w-auto" disabled={dotPx !== null} onClick={runBlind}>Start</button>
         </>

@@ -280,7 +280,10 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
     case "instructions":
       // the first task sequence starts: take a counterbalancing place and its condition order
       body = <InstructionsStep displayMode={design.task.displayMode} controls={techniqueControls} practice={design.task.practiceSequences > 0} onNext={async () => {
-        void enterTaskScreen(); // first, inside the tap: fullscreen needs a user gesture
+        // first, inside the tap: after a reload on this page the sensors were never allowed in it (iOS asks
+        // only from a gesture), then fullscreen (also from a gesture); a refusal shows its help before the task
+        if (motion && (await askMotionPermission()) === "denied") setGate("denied");
+        void enterTaskScreen();
         if (!(await send("start", {}))) return;
         await refresh();
         persist({ ...progress, stage: "task" });
@@ -299,7 +302,7 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
           <button type="button" className="btn w-full sm:w-auto" onClick={() => void openGate()}>Tap to continue</button>
         </section>
       ) : setup && item ? (
-        <div className="flex h-[calc(100vh-7rem)] flex-col">
+        <div className="flex h-full flex-col">
           <p className="px-3 py-1 text-sm" data-testid="round-label">{item.practice ? "Practice round (does not count)" : `Round ${done + 1} of ${measured}`}</p>
           <TaskCanvas key={step.index} setup={setup}
             onMovement={(m) => void storeRef.current?.saveMovement(uploadKey(st.participantId, item), m)}
@@ -350,10 +353,13 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
   }
 
   return (
-    <div className="flex min-h-screen flex-col">
+    // the page may draw under a notch or the status bar (viewport-fit=cover): its edges keep to the safe area;
+    // during a round it is exactly the visible height (dvh: without the browser's own bars), so the controls stay on screen
+    <div className={step.kind === "sequence" ? "flex h-dvh flex-col" : "flex min-h-dvh flex-col"}
+      style={{ paddingTop: "env(safe-area-inset-top)", paddingLeft: "env(safe-area-inset-left)", paddingRight: "env(safe-area-inset-right)" }}>
       {header}
       {confirm}
-      <main className={step.kind === "sequence" ? "flex-1" : "mx-auto w-full max-w-xl flex-1 space-y-3 p-4"}>
+      <main className={step.kind === "sequence" ? "min-h-0 flex-1" : "mx-auto w-full max-w-xl flex-1 space-y-3 p-4"}>
         {step.kind !== "consent" && step.kind !== "sequence" && error && <p className="field-error" role="alert">{error}</p>}
         {body}
       </main>

@@ -105,7 +105,10 @@ export function TaskCanvas(props: {
       if (setup.displayMode === "view") return setFit({ fits: true });
       const r = box.getBoundingClientRect();
       const scale = pixelsPerTaskUnit(setup.unit, setup.amplitude, setup.calibration);
-      const verdict = layoutFit(sequenceLayout(setup.type, setup.targetsPerRing, setup.amplitude, setup.width), scale, r.width, r.height);
+      // turned, the window's sides swap while the page's bars (header, hints, controls) keep their size
+      const barsW = window.innerWidth - r.width, barsH = window.innerHeight - r.height;
+      const turned = { width: window.innerHeight - barsW, height: window.innerWidth - barsH };
+      const verdict = layoutFit(sequenceLayout(setup.type, setup.targetsPerRing, setup.amplitude, setup.width), scale, r.width, r.height, turned);
       setFit((old) => (old && old.fits === verdict.fits && (old.fits || (!verdict.fits && old.advice === verdict.advice)) ? old : verdict));
     };
     check();

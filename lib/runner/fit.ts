@@ -12,13 +12,15 @@ export const FIT_MARGIN_PX = 8;
  * Purpose: before a sequence, refuse to draw targets off-screen. The ring needs its outer
  * diameter (the ring's diameter D plus one width W) and the strip pair its span (A + W) across,
  * at `pixelsPerUnit`, plus a margin each side. When the area turned by 90° would hold it, the
- * advice is to rotate the device; else to use a larger screen. (View mode has no such check: the
+ * advice is to rotate the device; else to use a larger screen. The area turned is `turned` when
+ * given (the caller's estimate: the window's sides swapped, less the page's own bars, which do not
+ * turn with it), else the area's sides swapped. (View mode has no such check: the
  * participant turns the view to find the targets.) Source: ISO 9241-411 task layout (ring
  * diameter D = A / cos(π/(2n)); strips A apart). Cost: O(targets).
  * @throws never.
  * @example layoutFit(sequenceLayout("ring", 13, 600, 60), 1, 412, 700) // { fits: false, advice: "larger-screen", … }
  */
-export function layoutFit(layout: SequenceLayout, pixelsPerUnit: number, widthPx: number, heightPx: number): FitVerdict {
+export function layoutFit(layout: SequenceLayout, pixelsPerUnit: number, widthPx: number, heightPx: number, turned?: { width: number; height: number }): FitVerdict {
   let halfW = 0, halfH = 0;
   const r = (layout.width * pixelsPerUnit) / 2;
   for (const t of layout.all) {
@@ -28,5 +30,6 @@ export function layoutFit(layout: SequenceLayout, pixelsPerUnit: number, widthPx
   const needW = 2 * (halfW + FIT_MARGIN_PX), needH = layout.type === "ring" ? 2 * (halfH + FIT_MARGIN_PX) : 0;
   if (needW <= widthPx && needH <= heightPx) return { fits: true };
   const neededPx = { width: Math.ceil(needW), height: Math.ceil(needH) };
-  return { fits: false, advice: needW <= heightPx && needH <= widthPx ? "rotate" : "larger-screen", neededPx };
+  const t = turned ?? { width: heightPx, height: widthPx };
+  return { fits: false, advice: needW <= t.width && needH <= t.height ? "rotate" : "larger-screen", neededPx };
 }

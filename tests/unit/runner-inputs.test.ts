@@ -76,6 +76,9 @@ describe("the ring fits the screen (ISO 9241-411 ring: diameter D = A / cos(π/(
     expect(layoutFit(sequenceLayout("strip", 9, 300, 40), 1, 300, 900)).toMatchObject({ fits: false, advice: "rotate", neededPx: { width: 356 } });
     // a ring is nearly as tall as it is wide: turning the screen does not help it
     expect(layoutFit(sequenceLayout("ring", 13, 300, 60), 1, 900, 360)).toMatchObject({ fits: false, advice: "larger-screen" });
+    // a phone held sideways (915 × 412 window, bars taking 32 px across and 200 px down): the same ring fits the phone upright
+    expect(layoutFit(sequenceLayout("ring", 13, 300, 60), 1, 883, 212, { width: 412 - 32, height: 915 - 200 })).toMatchObject({ fits: false, advice: "rotate" });
+    expect(layoutFit(sequenceLayout("ring", 13, 300, 60), 1, 883, 212, { width: 340, height: 715 })).toMatchObject({ fits: false, advice: "larger-screen" });
   });
 });
 
