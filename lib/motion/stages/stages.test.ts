@@ -11,6 +11,7 @@ import { gainCurveStage } from "./gainCurve";
 import { createGravityReferenceState, gravityReferenceStep, resetGravityReference } from "./gravityReference";
 import { createHeadingStickState, headingStickStep } from "./headingStickChannel";
 import { createLatencyState, latencyStep } from "./latency";
+import { motionViewStep } from "./motionChannel";
 import { pointerDeltaStep, pointerPositionStep } from "./pointerChannel";
 import { referenceFrameStage } from "./referenceFrame";
 import { createSampleClockState, sampleClockStep } from "./sampleClock";
@@ -126,6 +127,27 @@ describe("reference-frame stage: the signs of science.md §8", () => {
     expect(w.rateY).toBe(10);
     referenceFrameStage("device")(w, { axis: "screen-up", verticalSign: -1 });
     expect(w.rateY).toBe(-10);
+  });
+  it("every frame: an upright device (three.js) tipping its top edge away at 20°/s gives +20°/s up, −20 with invertVertical", () => {
+    // W3C Device Orientation and Motion: z points at the viewer, so the top edge going away is a negative turn about x
+    const s = virtualDeviceSamples((t) => upright().multiply(aboutDevice([1, 0, 0], -20 * (t / 1000))), 100, 100)[5]!;
+    for (const frame of ["device", "gravity", "adaptive"] as const) {
+      for (const verticalSign of [1, -1]) {
+        const w = workWith({ rx: s.gyroX, ry: s.gyroY, rz: s.gyroZ, ux: 0, uy: 1, uz: 0 });
+        referenceFrameStage(frame)(w, { axis: "screen-up", verticalSign });
+        expect(w.rateY).toBeCloseTo(20 * verticalSign, 6);
+        expect(w.rateX).toBeCloseTo(0, 9);
+      }
+    }
+  });
+});
+
+describe("motion channel's last stage", () => {
+  it("a view rate held over a sample is a view change of rate × Δt (30 deg/s for 100 ms is 3°), added to what other channels gave", () => {
+    const w = workWith({ viewRateX: -30, viewRateY: 10, dtS: 0.1, viewX: 1, viewY: 0 });
+    motionViewStep(w);
+    expect(w.viewX).toBeCloseTo(-2, 12);
+    expect(w.viewY).toBeCloseTo(1, 12);
   });
 });
 
