@@ -134,19 +134,26 @@ function fastFieldValue(text: string, start: number, end: number, file: string, 
 
 /** Where scanPlainField stopped (the comma or the line end), or −1 when it gave up. */
 let scanEnd = -1;
+/**
+ * The value scanPlainField read. A number returned from a call that the compiler does not inline
+ * is boxed on the heap (one object per field: about 130 MB of garbage for a million 11-column
+ * rows); written into a typed array it is not.
+ */
+const scanned = new Float64Array(1);
 
 /**
  * Fast path of fastFieldValue fused with finding the field's end: reads a field that is exactly
  * [-+]digits[.digits] (at most 15 significant digits, 22 decimals) or empty, ending at a comma or
- * at `stop`, sets scanEnd there and returns what fastFieldValue returns for it; for anything else
- * sets scanEnd = −1 (the caller then finds the comma and calls fastFieldValue).
+ * at `stop`, sets scanEnd there and `scanned[0]` to what fastFieldValue returns for it; for
+ * anything else sets scanEnd = −1 (the caller then finds the comma and calls fastFieldValue).
  */
-function scanPlainField(text: string, start: number, stop: number): number {
+function scanPlainField(text: string, start: number, stop: number): void {
   let i = start, negative = false;
   let ch = i < stop ? text.charCodeAt(i) : 44;
   if (ch === 44) {
     scanEnd = i;
-    return NaN; // empty field
+    scanned[0] = NaN; // empty field
+    return;
   }
   if (ch === 45 || ch === 43) {
     negative = ch === 45;
@@ -167,10 +174,10 @@ function scanPlainField(text: string, start: number, stop: number): number {
   if ((i === stop || ch === 44) && sawDigit && digits <= 15 && fraction <= 22) {
     scanEnd = i;
     const x = mantissa / (POW10[fraction] as number);
-    return negative ? -x : x;
+    scanned[0] = negative ? -x : x;
+    return;
   }
   scanEnd = -1;
-  return NaN;
 }
 
 function fieldValue(raw: string, file: string, line: number, column: string): number {
@@ -251,9 +258,9 @@ function parsePlain(text: string, file: string): SampleTable {
       let comma = -1;
       if (k >= 0) {
         const target = targets[k] as Float64Array;
-        const x = scanPlainField(text, start, stop);
+        scanPlainField(text, start, stop);
         comma = scanEnd;
-        if (comma >= 0) target[row] = x;
+        if (comma >= 0) target[row] = scanned[0] as number;
         else {
           comma = text.indexOf(",", start);
           if (comma === -1 || comma > stop) comma = stop;
@@ -355,25 +362,36 @@ export function sampleFromTable(table: SampleTable, i: number, out: MotionSample
   out.gyroX = c.gyro_x[i] as number;
   out.gyroY = c.gyro_y[i] as number;
   out.gyroZ = c.gyro_z[i] as number;
-  out.accelX = optionalAt(c.accel_x, p.accel_x, i);
-  out.accelY = optionalAt(c.accel_y, p.accel_y, i);
-  out.accelZ = optionalAt(c.accel_z, p.accel_z, i);
-  out.stickX = optionalAt(c.stick_x, p.stick_x, i);
-  out.stickY = optionalAt(c.stick_y, p.stick_y, i);
-  out.buttons = optionalAt(c.buttons, p.buttons, i);
-  out.screenAngleDeg = optionalAt(c.screen_angle, p.screen_angle, i);
-  out.pointerDx = optionalAt(c.pointer_dx, p.pointer_dx, i);
-  out.pointerDy = optionalAt(c.pointer_dy, p.pointer_dy, i);
-  out.pointerX = optionalAt(c.pointer_x, p.pointer_x, i);
-  out.pointerY = optionalAt(c.pointer_y, p.pointer_y, i);
-  out.selected = optionalAt(c.selected, p.selected, i);
+  // Each optional field is stored on its own branch, a number or undefined, never a value that is
+  // "a number or undefined": such a value is a boxed number on V8's heap, one per field and row
+  // (about 80 bytes a row of garbage with accelerometer and stick columns). `(v = column[i]) === v`
+  // reads the value and is false for NaN (an empty field); an absent column is not read.
+  let v = 0;
+  if (p.accel_x && (v = c.accel_x[i] as number) === v) out.accelX = v;
+  else out.accelX = undefined;
+  if (p.accel_y && (v = c.accel_y[i] as number) === v) out.accelY = v;
+  else out.accelY = undefined;
+  if (p.accel_z && (v = c.accel_z[i] as number) === v) out.accelZ = v;
+  else out.accelZ = undefined;
+  if (p.stick_x && (v = c.stick_x[i] as number) === v) out.stickX = v;
+  else out.stickX = undefined;
+  if (p.stick_y && (v = c.stick_y[i] as number) === v) out.stickY = v;
+  else out.stickY = undefined;
+  if (p.buttons && (v = c.buttons[i] as number) === v) out.buttons = v;
+  else out.buttons = undefined;
+  if (p.screen_angle && (v = c.screen_angle[i] as number) === v) out.screenAngleDeg = v;
+  else out.screenAngleDeg = undefined;
+  if (p.pointer_dx && (v = c.pointer_dx[i] as number) === v) out.pointerDx = v;
+  else out.pointerDx = undefined;
+  if (p.pointer_dy && (v = c.pointer_dy[i] as number) === v) out.pointerDy = v;
+  else out.pointerDy = undefined;
+  if (p.pointer_x && (v = c.pointer_x[i] as number) === v) out.pointerX = v;
+  else out.pointerX = undefined;
+  if (p.pointer_y && (v = c.pointer_y[i] as number) === v) out.pointerY = v;
+  else out.pointerY = undefined;
+  if (p.selected && (v = c.selected[i] as number) === v) out.selected = v;
+  else out.selected = undefined;
   return out;
-}
-
-function optionalAt(column: Float64Array, present: boolean, i: number): number | undefined {
-  if (!present) return undefined;
-  const v = column[i] as number;
-  return v === v ? v : undefined;
 }
 
 export { formatSampleCsv } from "./csvFormat";
