@@ -58,6 +58,8 @@ const schemaFor = (isDev: boolean) => z.object({
   EXPORT_CONCURRENCY: z.coerce.number().int().min(1).max(16).default(2),
   /** Days a finished archive's file is kept; then it is deleted and the listing says so (lib/data/exportQueue.ts). */
   EXPORT_RETENTION_DAYS: z.coerce.number().int().min(1).max(3650).default(30),
+  /** Seconds a running export may go without a sign of life (its process beats every 10 s) before it is failed as lost with its server (lib/data/exportQueue.ts). */
+  EXPORT_STALE_SECONDS: z.coerce.number().int().min(30).max(3600).default(120),
 });
 
 export type Env = z.infer<ReturnType<typeof schemaFor>>;

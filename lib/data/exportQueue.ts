@@ -12,8 +12,8 @@ import type { ExportOptions } from "@/lib/export";
 
 /** Export jobs of one study that may wait or run at once; a further request is refused (409). */
 export const MAX_UNFINISHED_PER_STUDY = 3;
-/** A running job silent this long (ms; its process beats every HEARTBEAT_MS) has lost its process (its server was killed with it): it is failed. */
-export const STALE_AFTER_MS = 120_000;
+/** A running job silent this long (ms; its process beats every HEARTBEAT_MS) has lost its process (its server was killed with it): it is failed. EXPORT_STALE_SECONDS, default 120 s. */
+export const STALE_AFTER_MS = env.EXPORT_STALE_SECONDS * 1000;
 
 const QUEUE_LOCK = "yawpoint.export-queue";
 
