@@ -3,7 +3,7 @@ import type { Knex } from "knex";
 import { Quaternion, Vector3 } from "three";
 import { fixtureDb } from "./fixtures/session-study";
 import { SensorWorld } from "./fixtures/inputs/sensorWorld";
-import { PHONE, expectReplayAgrees, finish, oneParticipant, onlyConfig, playSimulated, reachTask, techniqueDesign } from "./fixtures/inputs/inputStudy";
+import { PHONE, expectReplayAgrees, finish, hitsOf, oneParticipant, onlyConfig, playSimulated, reachTask, techniqueDesign } from "./fixtures/inputs/inputStudy";
 
 // Motion techniques through Chromium's own sensor emulation (CDP Emulation.setSensorOverride*),
 // one sequence each, in both display modes. The emulated phone is the simulated participant's:
@@ -12,7 +12,9 @@ import { PHONE, expectReplayAgrees, finish, oneParticipant, onlyConfig, playSimu
 // (b) the bias the calibration measured equals the injected bias within 0.15 deg/s (the W3C
 //     readings are coarsened to 0.1 deg/s by Chromium, so the mean of the noisy readings is
 //     what can be recovered);
-// (c) the rate the device check reports is the emulated 60 Hz within 10 %.
+// (c) the rate the device check reports is the emulated 60 Hz within 10 %;
+// (d) motion and motion+touch: the simulated participant, correcting by what it sees, hits at
+//     least 4 of 5 targets (a runner that aims wrongly fails here; (a) cannot see it).
 
 let db: Knex;
 test.beforeAll(() => {
@@ -64,6 +66,8 @@ for (const displayMode of ["cursor", "view"] as const) {
     const s = await expectReplayAgrees(db, p.id, config, [displayMode === "view" ? "device-motion" : "generic-sensor"]);
     expectBiasAndRate(s);
     expect(s.quality.inputAgeMedianMs).not.toBeNull();
+    // (d) the aim: at least 4 of 5 hits (hitsOf says why)
+    expect(hitsOf(s), "hits of 5").toBeGreaterThanOrEqual(4);
   });
 }
 
@@ -133,6 +137,8 @@ for (const displayMode of ["cursor", "view"] as const) {
       await world.stop();
       const s = await expectReplayAgrees(db, p.id, config, ["generic-sensor", "touch-drag"]);
       expectBiasAndRate(s);
+      // (d) the aim: at least 4 of 5 hits (hitsOf says why)
+      expect(hitsOf(s), "hits of 5").toBeGreaterThanOrEqual(4);
       // the drag reached the stream: pointer deltas summing to its 60 px
       const header = s.streamCsv.split("\n")[0]!.split(",");
       const dx = header.indexOf("pointer_dx");

@@ -66,7 +66,7 @@ test("a whole session on a phone through the emulated sensors: reload mid-block,
         playedKey = key;
         // the simulated person plans for gain 2 in both conditions (at gain 3 they overshoot, as a person might at first)
         // the reload and the session's end cut a running pilot short (its canvas goes away): what was stored is checked below
-        void playSimulated(page, world, config(2), { amplitude: 300, width: 45, seed: seed++, holdAfterSelectMs: 300, select: () => page.getByTestId("control-select").tap({ timeout: 5000 }).catch(() => undefined) }).catch(() => undefined);
+        void playSimulated(page, world, config(2), { amplitude: 300, width: 45, seed: seed++, select: () => page.getByTestId("control-select").tap({ timeout: 5000 }).catch(() => undefined) }).catch(() => undefined);
       }
       if (!reloaded && label.startsWith("Round 1 of") && trial >= 5) {
         world.still("flat");
