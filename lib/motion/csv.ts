@@ -93,45 +93,6 @@ function storeRow(table: SampleTable, values: Float64Array, file: string, line: 
 
 const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22];
 
-/**
- * Parse the decimal number in text[start, end) without creating a substring; NaN for an empty
- * field; falls back to Number() for anything but plain [-+]digits[.digits]. Plain fields of at most
- * 15 significant digits are exact: an integer mantissa below 2^53 divided by an exact power of ten
- * is correctly rounded (Clinger's fast path, PLDI 1990).
- */
-function fastFieldValue(text: string, start: number, end: number, file: string, line: number, column: string): number {
-  while (start < end && text.charCodeAt(start) === 32) start++;
-  while (end > start && text.charCodeAt(end - 1) === 32) end--;
-  if (start === end) return NaN;
-  let i = start, negative = false;
-  const first = text.charCodeAt(i);
-  if (first === 45 || first === 43) {
-    negative = first === 45;
-    i++;
-  }
-  let mantissa = 0, digits = 0, fraction = 0, seenDot = false, sawDigit = false, plain = i < end;
-  for (; i < end; i++) {
-    const ch = text.charCodeAt(i);
-    if (ch >= 48 && ch <= 57) {
-      sawDigit = true;
-      if (mantissa !== 0 || ch !== 48) digits++;
-      mantissa = mantissa * 10 + (ch - 48);
-      if (seenDot) fraction++;
-    } else if (ch === 46 && !seenDot) {
-      seenDot = true;
-    } else {
-      plain = false;
-      break;
-    }
-  }
-  // at least one digit: "." and "-." are not numbers (Number() gives NaN), so they take the slow path
-  if (plain && sawDigit && digits <= 15 && fraction <= 22) {
-    const x = mantissa / (POW10[fraction] as number);
-    return negative ? -x : x;
-  }
-  return fieldValue(text.slice(start, end), file, line, column);
-}
-
 /** Where scanPlainField stopped (the comma or the line end), or −1 when it gave up. */
 let scanEnd = -1;
 /**
@@ -142,10 +103,12 @@ let scanEnd = -1;
 const scanned = new Float64Array(1);
 
 /**
- * Fast path of fastFieldValue fused with finding the field's end: reads a field that is exactly
+ * The plain scanner, fused with finding the field's end: reads a field that is exactly
  * [-+]digits[.digits] (at most 15 significant digits, 22 decimals) or empty, ending at a comma or
- * at `stop`, sets scanEnd there and `scanned[0]` to what fastFieldValue returns for it; for
- * anything else sets scanEnd = −1 (the caller then finds the comma and calls fastFieldValue).
+ * at `stop`, sets scanEnd there and `scanned[0]` to its value (NaN when empty); for anything else
+ * sets scanEnd = −1 (the caller then finds the comma and calls fastFieldValue). Such fields are
+ * exact: an integer mantissa below 2^53 divided by an exact power of ten is correctly rounded
+ * (Clinger's fast path, PLDI 1990).
  */
 function scanPlainField(text: string, start: number, stop: number): void {
   let i = start, negative = false;
@@ -178,6 +141,20 @@ function scanPlainField(text: string, start: number, stop: number): void {
     return;
   }
   scanEnd = -1;
+}
+
+/**
+ * Parse the decimal number in text[start, end) without creating a substring (fastFieldValue):
+ * NaN for an empty field; surrounding spaces are dropped and the rest read by scanPlainField,
+ * with Number() for anything but plain [-+]digits[.digits].
+ */
+function fastFieldValue(text: string, start: number, end: number, file: string, line: number, column: string): number {
+  while (start < end && text.charCodeAt(start) === 32) start++;
+  while (end > start && text.charCodeAt(end - 1) === 32) end--;
+  if (start === end) return NaN;
+  scanPlainField(text, start, end);
+  if (scanEnd === end) return scanned[0] as number;
+  return fieldValue(text.slice(start, end), file, line, column);
 }
 
 function fieldValue(raw: string, file: string, line: number, column: string): number {
