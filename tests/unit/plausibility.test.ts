@@ -3,6 +3,7 @@ import { describe, expect, it } from "vitest";
 import { INFLATE_CHUNK_BYTES, inspectGzipStream, StreamRefusal, streamByteCap } from "@/lib/ingest/inspectStream";
 import type { TransferConfigInput } from "@/lib/motion/config";
 import { formatSampleCsv } from "@/lib/motion/csv";
+import { techniqueExamples } from "@/lib/motion/testing/techniqueExamples";
 import { batchProblems, planSession, sequenceLayout, streamProblems, type Problem, type SequenceBatch } from "@/lib/runner";
 import { answerProblems } from "@/lib/runner/questionnaire";
 import { studyDesignSchema, type StudyDesign } from "@/lib/study/design";
@@ -10,16 +11,7 @@ import { genuineBatch, wire } from "../fixtures/genuineBatch";
 
 // Every technique the simulated participant (lib/motion/simulate) can take through a ring task,
 // the heading stick with motion for the vertical (alone it turns only horizontally).
-const TECHNIQUES: [string, TransferConfigInput][] = [
-  ["motion", { technique: "motion", frame: "adaptive", gain: 3 }],
-  ["stick", { technique: "stick" }],
-  ["motion+stick (rate)", { technique: "motion+stick", frame: "gravity", gain: 2 }],
-  ["motion+stick (heading)", { technique: "motion+stick", stickMode: "heading", frame: "adaptive", gain: 2 }],
-  ["motion+touch", { technique: "motion+touch", gain: 1.5, pointerDegreesPerPixel: 0.25 }],
-  ["mouse", { technique: "mouse", pointerCursorGain: 1.5 }],
-  ["touch", { technique: "touch", pointerDegreesPerPixel: 0.2 }],
-  ["tilt-rate", { technique: "tilt-rate", gravityFilterTimeMs: 300 }],
-];
+const TECHNIQUES = techniqueExamples;
 
 function designFor(config: TransferConfigInput, displayMode: "cursor" | "view", type: "ring" | "strip" = "ring"): StudyDesign {
   const view = displayMode === "view";

@@ -11,6 +11,7 @@ import { deviceSpeedForOutputSpeed } from "./inverseTransfer";
 import { defaultTransferConfig, type TransferConfigInput } from "../config";
 import type { MotionSample } from "../sample";
 import type { TrialRow } from "./trialRow";
+import { techniqueExamples } from "../testing/techniqueExamples";
 
 const n = 13, D = 480, W = 48;
 const ring = ringTargets(n, D, { x: 640, y: 400 });
@@ -165,15 +166,8 @@ describe("every technique, both display modes", () => {
     cursor: { targets, amplitude: A, width: W },
     view: { targets: viewTargets, amplitude: ringAmplitude(n, 40), width: 4 },
   } as const;
-  const cases: [string, TransferConfigInput][] = [
-    ["motion", { technique: "motion", frame: "adaptive", gain: 3 }],
-    ["stick (rate)", { technique: "stick" }],
-    ["motion+stick (rate)", { technique: "motion+stick", frame: "gravity", gain: 2 }],
-    ["motion+stick (heading)", { technique: "motion+stick", stickMode: "heading", frame: "adaptive", gain: 2 }],
-    ["motion+touch", { technique: "motion+touch", gain: 1.5, pointerDegreesPerPixel: 0.25 }],
-    ["mouse", { technique: "mouse", pointerCursorGain: 1.5 }],
-    ["touch", { technique: "touch", pointerDegreesPerPixel: 0.2 }],
-    ["tilt-rate", { technique: "tilt-rate", gravityFilterTimeMs: 300 }],
+  const cases: (readonly [string, TransferConfigInput])[] = [
+    ...techniqueExamples,
     ["motion, inverted vertical, while aiming, latency", { technique: "motion", invertVertical: true, activation: "while-aiming", addedLatencyMs: 40, smoothingTimeMs: 30 }],
     ["stick, inverted vertical", { technique: "stick", invertVertical: true }],
     ["tilt-rate, inverted vertical", { technique: "tilt-rate", invertVertical: true }],
