@@ -14,7 +14,8 @@
 //    ones can also come from V8's idle-time memory reducer while the loop yields between chunks.
 // 2. Replay of a 1 M-sample CSV end to end, started as `npm run replay` starts it
 //    (`node experiments/cli/run.mjs replay`, a fresh process each run, output to /dev/null): wall
-//    time, median of several runs; also the in-process parts and the start-up alone.
+//    time, median of several runs; also the in-process parts (reader, engine and writer bundled
+//    as the CLI bundles them) and the start-up alone.
 import { spawnSync } from "node:child_process";
 import { mkdtempSync, openSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
@@ -22,10 +23,8 @@ import { join } from "node:path";
 import { pathToFileURL } from "node:url";
 import { constants as perfConstants, PerformanceObserver } from "node:perf_hooks";
 import { setFlagsFromString } from "node:v8";
-import { writeMillionths, writeNumberText } from "../cli/writeMillionths";
 import { runInNewContext } from "node:vm";
 import { build } from "esbuild";
-import { parseSampleCsv, sampleFromTable } from "../../lib/motion/csv";
 import type { TransferConfigInput } from "../../lib/motion/config";
 import type { MotionSample } from "../../lib/motion/sample";
 
@@ -35,6 +34,13 @@ const gc = runInNewContext("gc") as () => void;
 const bundle = join("node_modules", ".cache", "yawpoint-bench", "motion-engine.mjs");
 await build({ entryPoints: ["lib/motion/engine.ts"], outfile: bundle, bundle: true, platform: "node", format: "esm", target: "node20", packages: "external", logLevel: "error" });
 const { createMotionEngine } = (await import(pathToFileURL(join(process.cwd(), bundle)).href)) as typeof import("../../lib/motion/engine");
+// the replay CLI's reader and writer, bundled the same way for the in-process parts of the replay
+const partsBundle = join("node_modules", ".cache", "yawpoint-bench", "replay-parts.mjs");
+await build({
+  stdin: { contents: 'export { parseSampleCsv, sampleFromTable } from "./lib/motion/csv";\nexport { writeMillionths, writeNumberText } from "./experiments/cli/writeMillionths";\n', resolveDir: process.cwd(), loader: "ts" },
+  outfile: partsBundle, bundle: true, platform: "node", format: "esm", target: "node20", packages: "external", logLevel: "error",
+});
+const { parseSampleCsv, sampleFromTable, writeMillionths, writeNumberText } = (await import(pathToFileURL(join(process.cwd(), partsBundle)).href)) as typeof import("../../lib/motion/csv") & typeof import("../cli/writeMillionths");
 
 /** Every stage each channel can run, at its most expensive setting; the slowest is timed at length. */
 const heavy: TransferConfigInput = {
