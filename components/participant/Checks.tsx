@@ -3,6 +3,8 @@ import { useEffect, useRef, useState } from "react";
 import type { Technique } from "@/lib/motion/config";
 import { sampleRateReport } from "@/lib/motion/calibration/sampleRateReport";
 import { estimateBiasAtRest } from "@/lib/motion/calibration/biasAtRest";
+import { checkGravitySign } from "@/lib/motion/calibration/gravitySignCheck";
+import type { MotionSample } from "@/lib/motion/sample";
 import { deviceVerdict, type DeviceInputs } from "@/lib/runner/deviceCheck";
 import { inputPathsFor, usesMotion } from "@/lib/runner/inputPaths";
 import { ID1_CARD_HEIGHT_MM, ID1_CARD_WIDTH_MM, pixelsPerMmFromCard, viewingDistanceFromBlindSpot } from "@/lib/runner/calibration";
@@ -27,15 +29,35 @@ export function PermissionHelp() {
   );
 }
 
+/** What the still part of the device check found, kept while the participant tilts the device. */
+interface StillCheck {
+  request: DeviceRequest;
+  held: MotionSample[];
+  /** The check's verdict on inputs and rate (before the gravity sign). */
+  verdict: ReturnType<typeof deviceVerdict>;
+}
+
 /**
  * The device check: which inputs this device has for the study's techniques, through which
- * browser paths, how often they report and how old their input is when drawn.
+ * browser paths, how often they report and how old their input is when drawn. Where a
+ * condition takes "up" from the accelerometer (`gravity`: the gravity and adaptive frames,
+ * tilt-rate), a second part checks its sign: the readings while the device lies flat, screen
+ * up, and while the participant tilts it (checkGravitySign). An inverted source is recorded and
+ * turned round; one that cannot be told apart is refused with a plain message.
  */
-export function DeviceStep(props: { techniques: Technique[]; displayMode: "cursor" | "view"; minRateHz: number; screenedReturn?: string | null; onDone: (r: DeviceRequest) => Promise<void> }) {
-  const [state, setState] = useState<"idle" | "measuring" | "refused" | "denied">("idle");
+export function DeviceStep(props: { techniques: Technique[]; displayMode: "cursor" | "view"; minRateHz: number; gravity: boolean; screenedReturn?: string | null; onDone: (r: DeviceRequest) => Promise<void> }) {
+  const [state, setState] = useState<"idle" | "measuring" | "tilt" | "tilting" | "refused" | "denied">("idle");
   const [message, setMessage] = useState<string | null>(null);
+  const still = useRef<StillCheck | null>(null);
   const motion = props.techniques.some(usesMotion);
   const controller = props.techniques.some((t) => inputPathsFor(t, props.displayMode).gamepad === "required");
+  const finish = async (request: DeviceRequest, refusal: string | null): Promise<void> => {
+    await props.onDone(request);
+    if (refusal !== null) {
+      setState("refused");
+      setMessage(refusal);
+    } else setState("idle");
+  };
   const check = async (): Promise<void> => {
     // first, inside the tap: iOS asks for the motion sensors only from a user gesture
     const permission = motion ? await askMotionPermission() : "granted";
@@ -84,15 +106,42 @@ export function DeviceStep(props: { techniques: Technique[]; displayMode: "curso
       inputs.gamepad = gamepadConnected(window);
     }
     const verdict = deviceVerdict(props.techniques, inputs, props.minRateHz);
-    await props.onDone({
+    const request: DeviceRequest = {
       inputs: { motion: inputs.motion, gamepad: inputs.gamepad, touch: inputs.touch, finePointer: inputs.finePointer },
       sampleRateHz: inputs.sampleRateHz, jitterSdMs: jitter, sourceKind: kind, verdict: verdict.ok ? "ok" : "refused",
-      inputApis: apis, requestedRateHz, controllerRateHz, inputAgeMedianMs: ageMedian, inputAgeP95Ms: ageP95,
-    });
-    if (!verdict.ok) {
-      setState("refused");
-      setMessage(verdict.message);
-    } else setState("idle");
+      inputApis: apis, requestedRateHz, controllerRateHz, inputAgeMedianMs: ageMedian, inputAgeP95Ms: ageP95, gravitySign: null,
+    };
+    if (verdict.ok && props.gravity && recording) {
+      // the sign of "up" next: these readings are the device lying flat, screen up
+      still.current = { request, held: recording.samples, verdict };
+      setState("tilt");
+      return;
+    }
+    await finish(request, verdict.ok ? null : verdict.message);
+  };
+  const tilt = async (): Promise<void> => {
+    const first = still.current;
+    if (!first) return setState("idle");
+    setState("tilting");
+    setMessage(null);
+    const recording = await recordMotion(TILT_MS).catch(() => null);
+    const result = checkGravitySign({ posture: "flat", held: first.held, tilting: recording?.samples ?? [] });
+    if (result.verdict === "fine" || result.verdict === "inverted") {
+      still.current = null;
+      return finish({ ...first.request, gravitySign: result.verdict === "fine" ? "normal" : "inverted" }, null);
+    }
+    if (result.retry) {
+      setMessage(result.message);
+      // the flat part again when that was unclear; else only the tilting
+      if (result.posture.verdict === "cannot-tell") {
+        still.current = null;
+        setState("idle");
+      } else setState("tilt");
+      return;
+    }
+    // a mirrored axis: "up" from this device cannot be trusted, and trying again will not change that
+    still.current = null;
+    await finish({ ...first.request, verdict: "refused", gravitySign: "mirrored" }, result.message);
   };
   return (
     <section className="space-y-3">
@@ -101,19 +150,34 @@ export function DeviceStep(props: { techniques: Technique[]; displayMode: "curso
         We check which inputs this device has{motion ? " and how often its motion sensors report" : ""}{controller ? " and whether your controller is connected" : ""}.
         {motion && " Your browser may ask to allow motion sensors: please allow them."}
       </p>
-      {motion && <p>Put the device flat on a table, screen up, then tap the button and do not touch the device for 2 seconds.</p>}
-      {controller && <p>Connect your controller and press any of its buttons once, so the browser can see it.</p>}
+      {state === "tilt" || state === "tilting" ? (
+        <>
+          <h2 className="font-semibold">Part 2 of 2: which way is up</h2>
+          <p>Pick the device up and hold it in front of you. After you tap the button, tilt it slowly forward and back a few times, then side to side a few times, for {TILT_MS / 1000} seconds. Small, gentle movements are enough.</p>
+        </>
+      ) : (
+        <>
+          {motion && <p>{props.gravity ? "Part 1 of 2: put" : "Put"} the device flat on a table, screen up, then tap the button and do not touch the device for 2 seconds.</p>}
+          {controller && <p>Connect your controller and press any of its buttons once, so the browser can see it.</p>}
+        </>
+      )}
       {state === "denied" && <PermissionHelp />}
       {message && <p className="notice" role="alert">{message}</p>}
-      <button type="button" className="btn w-full sm:w-auto" disabled={state === "measuring"} onClick={() => void check()}>
-        {state === "measuring" ? "Checking… keep the device still" : state === "idle" ? "Check my device" : "Check again"}
-      </button>
-      {state === "refused" && props.screenedReturn && (
-        <p>If this device cannot take part, you can <a href={props.screenedReturn} data-testid="screened-return">return to the recruitment site</a>; thank you for your time.</p>
+      {state === "tilt" || state === "tilting" ? (
+        <button type="button" className="btn w-full sm:w-auto" disabled={state === "tilting"} onClick={() => void tilt()}>
+          {state === "tilting" ? "Tilting… forward and back, then side to side" : "Start tilting"}
+        </button>
+      ) : (
+        <button type="button" className="btn w-full sm:w-auto" disabled={state === "measuring"} onClick={() => void check()}>
+          {state === "measuring" ? "Checking… keep the device still" : state === "idle" && !message ? "Check my device" : "Check again"}
+        </button>
       )}
     </section>
   );
 }
+
+/** How long the participant tilts the device for the gravity-sign check (ms). */
+const TILT_MS = 5000;
 
 /** Which calibration parts a study needs: bias for motion sensors, the card for mm and visual degrees, the blind spot for visual degrees. */
 export function calibrationParts(motion: boolean, unit: "px" | "mm" | "deg-visual" | "deg-view"): Array<"bias" | "card" | "blind"> {

@@ -13,6 +13,7 @@ import { errorMessage, postSession } from "./api";
 import { openSessionStore, type SessionStore } from "./store";
 import { createUploader, type Uploader, type UploadStatus } from "./uploader";
 import { usesMotion } from "@/lib/runner/inputPaths";
+import { gravityCheckNeeded } from "@/lib/motion/calibration/gravitySignCheck";
 import { controlHelp, type ControlContext } from "@/lib/runner/controls";
 import { TaskCanvas, type FinishedSequence, type TaskSetup } from "./TaskCanvas";
 import { BreakStep, ConditionQuestionnaire, ConsentStep, FinalQuestionnaire, InfoStep, InstructionsStep, type TechniqueControls } from "./Steps";
@@ -56,6 +57,8 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
   const configs = st.configs;
   const techniques = useMemo(() => [...new Set(configs.map((c) => c.technique))], [configs]);
   const motion = techniques.some(usesMotion);
+  // a condition takes "up" from the accelerometer: the device check tests its sign
+  const gravity = useMemo(() => configs.some(gravityCheckNeeded), [configs]);
   const plan = useMemo(() => (st.order && st.planSeed !== null ? planSequences(design, st.conditions, st.order, st.planSeed) : []), [design, st.conditions, st.order, st.planSeed]);
   useWakeLock(progress.stage === "task" && !withdrawn);
 
@@ -155,7 +158,12 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
     if (!item) return null;
     const base = configs[item.conditionIndex]!;
     const b = calibration.bias;
-    const config: TransferConfig = b ? { ...base, biasXDegPerS: b.x, biasYDegPerS: b.y, biasZDegPerS: b.z } : base;
+    // the participant's calibration joins the condition's configuration (a replay of the stream takes the same)
+    const config: TransferConfig = {
+      ...base,
+      ...(b ? { biasXDegPerS: b.x, biasYDegPerS: b.y, biasZDegPerS: b.z } : {}),
+      ...(calibration.accelerometerInverted ? { accelerometerInverted: true } : {}),
+    };
     return {
       type: design.task.type, displayMode: design.task.displayMode, unit: design.task.unit, targetsPerRing: design.task.targetsPerRing,
       amplitude: item.amplitude, width: item.width, selection: design.task.selection, dwellMs: design.task.dwellMs, timeLimitMs: design.task.trialTimeLimitMs,
@@ -263,8 +271,10 @@ export function SessionApp({ token, initial }: { token: string; initial: Session
       if (full && st.returnTo?.screened) body = <>{body}<p><a className="btn inline-block" href={st.returnTo.screened} data-testid="screened-return">Return to the recruitment site</a></p></>;
       break;
     case "device":
-      body = <DeviceStep techniques={techniques} displayMode={design.task.displayMode} minRateHz={design.minSampleRateHz} screenedReturn={st.returnTo?.screened ?? null} onDone={async (r: DeviceRequest) => {
-        if (await send("device", r)) if (r.verdict === "ok") next();
+      body = <DeviceStep techniques={techniques} displayMode={design.task.displayMode} minRateHz={design.minSampleRateHz} gravity={gravity} screenedReturn={st.returnTo?.screened ?? null} onDone={async (r: DeviceRequest) => {
+        if (!(await send("device", r))) return;
+        setCalibration((c) => ({ ...c, accelerometerInverted: r.gravitySign === "inverted" }));
+        if (r.verdict === "ok") next();
       }} />;
       break;
     case "calibration":

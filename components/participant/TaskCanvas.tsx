@@ -8,7 +8,7 @@ import type { Point } from "@/lib/task/point";
 import { isInsideTarget, sequenceLayout } from "@/lib/runner/geometry";
 import { pixelsPerTaskUnit, type DisplayCalibration } from "@/lib/runner/calibration";
 import { createSequenceRecorder, type RecordedMovement } from "@/lib/runner/sequenceRecorder";
-import { projectDirection } from "@/lib/runner/perspective";
+import { projectDirection, VIEW_VERTICAL_FOV_DEG } from "@/lib/runner/perspective";
 import { controlHelp, controlMasks, controlSet, type ControlContext } from "@/lib/runner/controls";
 import { createInputAgeLog } from "@/lib/runner/inputAge";
 import { inputPathsFor } from "@/lib/runner/inputPaths";
@@ -42,7 +42,6 @@ export interface FinishedSequence {
   quality: SequenceQuality;
 }
 
-const VERTICAL_FOV_DEG = 60;
 const FRAME_LOG = 4096;
 /** How long the mark of a selection stays, fading out (ms): one smooth fade, never a flash. */
 const SELECTION_MARK_MS = 400;
@@ -185,6 +184,7 @@ export function TaskCanvas(props: {
         pointerLockRaw: inputs.pointerLockRaw,
         inputAgeMedianMs: age ? round3(age.medianMs) : null,
         inputAgeP95Ms: age ? round3(age.p95Ms) : null,
+        accelerometerInverted: setup.config.accelerometerInverted,
         canvasWidthPx: round3(w),
         canvasHeightPx: round3(h),
         startX: round3(start.x),
@@ -347,9 +347,9 @@ export function TaskCanvas(props: {
         const isNext = nextPoint !== undefined && t.x === nextPoint.x && t.y === nextPoint.y;
         let cx: number, cy: number, r: number;
         if (view) {
-          if (!projectDirection(t.x, t.y, pos.x, pos.y, VERTICAL_FOV_DEG, w, h, tmp)) continue;
+          if (!projectDirection(t.x, t.y, pos.x, pos.y, VIEW_VERTICAL_FOV_DEG, w, h, tmp)) continue;
           // a pitch offset of W/2 is W/2 on a great circle at any pitch (a yaw offset would shrink by cos(pitch))
-          projectDirection(t.x, t.y + setup.width / 2, pos.x, pos.y, VERTICAL_FOV_DEG, w, h, tmp2);
+          projectDirection(t.x, t.y + setup.width / 2, pos.x, pos.y, VIEW_VERTICAL_FOV_DEG, w, h, tmp2);
           cx = tmp.x;
           cy = tmp.y;
           r = Math.max(2, Math.hypot(tmp2.x - tmp.x, tmp2.y - tmp.y));

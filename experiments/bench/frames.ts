@@ -7,8 +7,10 @@
 // 2. (test builds only, NEXT_PUBLIC_YAWPOINT_TEST_SOURCES=1) For each technique, one sequence of
 //    13 targets in headless Chromium through its real input path: motion through Chromium's
 //    sensor emulation (CDP) fed with the simulated participant at 60 Hz; the stick through the
-//    test stand-in for navigator.getGamepads; the mouse through Pointer Lock with Playwright's
-//    mouse. Per technique: frame work (the time inside each requestAnimationFrame callback:
+//    test stand-in for navigator.getGamepads (alone, with no gyroscope, and beside the sensors);
+//    motion+touch with CDP touch taps; the mouse through Pointer Lock with Playwright's mouse;
+//    touch (the finger's position) with CDP touch taps on the targets. tilt-rate reads the same
+//    sensors through the same path as motion. Per technique: frame work (the time inside each requestAnimationFrame callback:
 //    controller poll, timers, drawing) p50/p99/max, samples lost (delivered by the inputs but
 //    not recorded, plus samples the engine dropped), and the input age at drawing (event time
 //    stamp to the start of the frame that first drew it), median and p95, against the sensor's
@@ -23,6 +25,7 @@ import { PHONE, finish, oneParticipant, onlyConfig, playSimulated, reachTask, te
 import { SensorWorld } from "../../tests/e2e/fixtures/inputs/sensorWorld";
 import { installGamepad, startStickPilot } from "../../tests/e2e/fixtures/inputs/gamepad";
 import { runMousePilot } from "../../tests/e2e/fixtures/inputs/mousePilot";
+import { tapUntilComplete } from "../../tests/e2e/fixtures/session-flow";
 
 const bundleOnly = process.argv.includes("--bundle-only");
 const port = Number(process.env.PORT ?? 3204);
@@ -49,30 +52,40 @@ try {
     const browser = await chromium.launch({ executablePath: "/usr/bin/chromium", headless: true });
     type Run = { workMs: number[]; delivered: number; recorded: number; engineDropped: number; apis: string[]; rateHz: number; ageMedianMs: number | null; ageP95Ms: number | null };
     const runs: Array<{ name: string; run: Run; refreshHz: number; extraKb: number }> = [];
-    const techniques = [
-      { name: "motion (sensor emulation, Generic Sensor API)", technique: "motion" as const, drive: "motion" },
-      { name: "stick (gamepad stand-in)", technique: "stick" as const, drive: "stick" },
-      { name: "mouse (Pointer Lock)", technique: "mouse" as const, drive: "mouse" },
+    type Drive = "motion" | "stick" | "motion+stick" | "motion+touch" | "mouse" | "touch";
+    const techniques: Array<{ name: string; technique: Drive; selection: "button" | "tap" | "click" }> = [
+      { name: "motion (sensor emulation, Generic Sensor API)", technique: "motion", selection: "button" },
+      { name: "stick (gamepad stand-in, no gyroscope)", technique: "stick", selection: "button" },
+      { name: "motion+stick (sensor emulation + gamepad stand-in)", technique: "motion+stick", selection: "button" },
+      { name: "motion+touch (sensor emulation + CDP touch taps)", technique: "motion+touch", selection: "tap" },
+      { name: "mouse (Pointer Lock)", technique: "mouse", selection: "click" },
+      { name: "touch (CDP touch, the finger's position)", technique: "touch", selection: "tap" },
     ];
     for (const t of techniques) {
-      const design = techniqueDesign(t.technique, "cursor", { selection: t.technique === "mouse" ? "click" : "button", targets: 13 });
+      const design = techniqueDesign(t.technique, "cursor", { selection: t.selection, targets: 13 });
       const p = await oneParticipant(db, `Frame bench ${t.technique}`, design);
-      const context = await browser.newContext({ viewport: { width: 1280, height: 800 }, bypassCSP: true });
+      const touchScreen = t.technique === "touch" || t.technique === "motion+touch";
+      const context = await browser.newContext({ viewport: { width: 1280, height: 800 }, bypassCSP: true, hasTouch: touchScreen });
       const page: Page = await context.newPage();
       page.setDefaultTimeout(30_000);
+      const motion = t.technique.startsWith("motion");
       let world: SensorWorld | null = null;
-      if (t.drive === "motion") {
+      if (motion) {
         world = new SensorWorld(await context.newCDPSession(page), { rateHz: PHONE.rateHz, biasDegPerS: PHONE.gyroBiasDegPerS, noiseSdDegPerS: PHONE.gyroNoiseSdDegPerS, seed: 3 });
         await world.enable();
         world.still("flat");
         world.start();
       }
-      if (t.drive === "stick") await installGamepad(page);
+      if (t.technique === "stick" || t.technique === "motion+stick") await installGamepad(page);
       await page.goto(`${server.url}/s/${p.token}`);
       const before = new Set((await page.evaluate(() => performance.getEntriesByType("resource").map((e) => e.name))).filter((n) => n.endsWith(".js")));
-      await reachTask(page, { motion: t.drive === "motion" });
-      if (world) await playSimulated(page, world, onlyConfig(design), { seed: 9, select: () => page.keyboard.press("Space") });
-      else if (t.drive === "stick") await startStickPilot(page, { selectButton: 3, withinPx: 8 });
+      await reachTask(page, { motion });
+      if (t.technique === "stick" || t.technique === "motion+stick") await startStickPilot(page, { selectButton: 3, withinPx: 8 });
+      else if (t.technique === "motion") await playSimulated(page, world!, onlyConfig(design), { seed: 9, select: () => page.keyboard.press("Space") });
+      else if (t.technique === "motion+touch") {
+        const area = (await page.getByTestId("task-canvas").boundingBox())!;
+        await playSimulated(page, world!, onlyConfig(design), { seed: 9, select: () => page.touchscreen.tap(area.x + 30, area.y + 30) });
+      } else if (t.technique === "touch") await tapUntilComplete(page);
       else await runMousePilot(page, { displayMode: "cursor", gain: 1, degPerPx: 0.1 });
       await page.waitForFunction(`(window.__yawpointFrames?.length ?? 0) >= 1`, undefined, { timeout: 120_000, polling: 250 });
       const run = (await page.evaluate(`window.__yawpointFrames[0]`)) as Run;

@@ -200,7 +200,8 @@ export async function fetchSessionState(q: Queryable, ctx: SessionContext): Prom
   const p = ctx.participant;
   const consent = await consentForSession(q, ctx);
   const cal = await q("calibrations").where({ participant_id: p.id }).orderBy("id", "asc").select<{ kind: string; result: unknown }[]>("kind", "result");
-  const calibration: SessionState["calibration"] = { pixelsPerMm: null, viewingDistanceMm: null, bias: null };
+  const device = jsonColumn(p.device) as { gravitySign?: unknown } | null;
+  const calibration: SessionState["calibration"] = { pixelsPerMm: null, viewingDistanceMm: null, bias: null, accelerometerInverted: device?.gravitySign === "inverted" };
   for (const c of cal) {
     const r = jsonColumn(c.result) as Record<string, number> | null;
     if (!r) continue;

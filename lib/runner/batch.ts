@@ -45,6 +45,8 @@ export const sequenceQualitySchema = z.strictObject({
   /** The task area (CSS px): cursor positions are kept inside it, which a replay of the stream must do too. */
   canvasWidthPx: z.number().finite().min(0).max(100_000).optional(),
   canvasHeightPx: z.number().finite().min(0).max(100_000).optional(),
+  /** The device check found the accelerometer negated, and the stream ran with `accelerometerInverted` (a replay sets it too). */
+  accelerometerInverted: z.boolean().optional(),
   /** Where the output started (cursor: canvas px; view: yaw, pitch deg): a replay adds its output to this (replay --start). */
   startX: z.number().finite().optional(),
   startY: z.number().finite().optional(),

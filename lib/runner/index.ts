@@ -7,7 +7,7 @@ export {
   ID1_CARD_WIDTH_MM, ID1_CARD_HEIGHT_MM, BLIND_SPOT_ANGLE_DEG, pixelsPerMmFromCard, viewingDistanceFromBlindSpot,
   visualDegreesToPixels, pixelsPerTaskUnit, trialUnit, type DisplayCalibration,
 } from "./calibration";
-export { projectDirection } from "./perspective";
+export { projectDirection, VIEW_VERTICAL_FOV_DEG } from "./perspective";
 export { createSequenceRecorder, type SequenceRecorder, type RecordedMovement, type SelectionCause } from "./sequenceRecorder";
 export { consentBlocks, requiredStatementIds, consentCopyText, DEFAULT_STATEMENT, type ConsentBlock } from "./consent";
 export { sequenceBatchSchema, movementSchema, sequenceQualitySchema, inputApis, type InputApi, type SequenceBatch, type SequenceQuality, type Movement } from "./batch";

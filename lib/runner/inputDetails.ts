@@ -7,6 +7,8 @@ export interface InputDetails {
   pointerLockRaw: boolean | null;
   ageMedianMs: number | null;
   ageP95Ms: number | null;
+  /** The device check's gravity sign ("inverted": the runner turns the accelerometer round), or null when not checked. */
+  gravitySign: "normal" | "inverted" | "mirrored" | null;
 }
 
 type Stored = Record<string, unknown> | null | undefined;
@@ -34,6 +36,7 @@ export function inputDetails(latestQuality: Stored, device: Stored): InputDetail
     pointerLockRaw: typeof src.pointerLockRaw === "boolean" ? src.pointerLockRaw : null,
     ageMedianMs: num(src.inputAgeMedianMs),
     ageP95Ms: num(src.inputAgeP95Ms),
+    gravitySign: device && (device.gravitySign === "normal" || device.gravitySign === "inverted" || device.gravitySign === "mirrored") ? device.gravitySign : null,
   };
 }
 
@@ -48,5 +51,7 @@ export function describeInputDetails(d: InputDetails): string {
   if (d.rateHz !== null) parts.push(`${Math.round(d.rateHz)} Hz`);
   if (d.pointerLockRaw !== null) parts.push(d.pointerLockRaw ? "raw mouse" : "mouse not raw");
   if (d.ageMedianMs !== null) parts.push(`input age ${d.ageMedianMs.toFixed(1)} ms median${d.ageP95Ms !== null ? `, ${d.ageP95Ms.toFixed(1)} ms p95` : ""}`);
+  if (d.gravitySign === "inverted") parts.push("accelerometer negated, turned round");
+  if (d.gravitySign === "mirrored") parts.push("accelerometer axis mirrored, refused");
   return `${parts.join(", ")} (${d.from})`;
 }

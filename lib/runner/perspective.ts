@@ -1,4 +1,12 @@
 /**
+ * The view's vertical field of view in view mode (degrees): the participant's task draws with it,
+ * and the design page's fit check (lib/study/checks) asks whether a ring lies within it. One
+ * value for both. 60° is our choice for hand-held screens (common practice puts first-person
+ * views at 50–70° vertical; from memory).
+ */
+export const VIEW_VERTICAL_FOV_DEG = 60;
+
+/**
  * Screen position of a direction seen from a rotated view (projectDirection).
  *
  * Purpose: view mode draws targets at angular positions (yaw right, pitch up, degrees) with a

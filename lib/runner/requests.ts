@@ -32,11 +32,12 @@ export const deviceRequestSchema = z.strictObject({
   inputAgeMedianMs: z.number().finite().min(0).max(60_000).nullable().optional(),
   inputAgeP95Ms: z.number().finite().min(0).max(60_000).nullable().optional(),
   /**
-   * The sign of the accelerometer's gravity: "normal" (lying flat, screen up, z reads about
-   * +9.8 m/s², W3C), "inverted" (the source reports it negated: the runner flips it and says so),
-   * or null when not checked (no motion technique).
+   * The sign of the accelerometer's gravity (checkGravitySign, for studies whose conditions take
+   * "up" from it): "normal" (lying flat, screen up, z reads about +9.8 m/s², W3C), "inverted"
+   * (the source reports it negated: the runner turns it round, `accelerometerInverted`),
+   * "mirrored" (an axis disagrees with the gyroscope's: refused), or null when not checked.
    */
-  gravitySign: z.enum(["normal", "inverted"]).nullable().optional(),
+  gravitySign: z.enum(["normal", "inverted", "mirrored"]).nullable().optional(),
 });
 
 export const calibrationRequestSchema = z.discriminatedUnion("kind", [
@@ -94,7 +95,11 @@ export interface SessionState {
   order: number[] | null;
   planSeed: number | null;
   progress: unknown;
-  calibration: { pixelsPerMm: number | null; viewingDistanceMm: number | null; bias: { x: number; y: number; z: number } | null };
+  calibration: {
+    pixelsPerMm: number | null; viewingDistanceMm: number | null; bias: { x: number; y: number; z: number } | null;
+    /** The device check found this device's accelerometer negated: every condition runs with `accelerometerInverted`. */
+    accelerometerInverted: boolean;
+  };
   /** Upload keys the server holds. */
   uploaded: string[];
   completionCode: string | null;

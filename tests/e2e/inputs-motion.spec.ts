@@ -25,7 +25,7 @@ test.afterAll(async () => {
 });
 
 /** A page with the emulated phone's sensors on (without the Generic Sensor API when `deviceMotionOnly`). */
-async function withSensors(page: Page, seed: number, deviceMotionOnly = false): Promise<SensorWorld> {
+async function withSensors(page: Page, seed: number, deviceMotionOnly = false, accelerometerNegated = false): Promise<SensorWorld> {
   if (deviceMotionOnly) {
     // a browser without the Generic Sensor API: the runner falls back to DeviceMotion
     await page.addInitScript(() => {
@@ -33,7 +33,7 @@ async function withSensors(page: Page, seed: number, deviceMotionOnly = false): 
     });
   }
   const cdp = await page.context().newCDPSession(page);
-  const world = new SensorWorld(cdp, { rateHz: PHONE.rateHz, biasDegPerS: PHONE.gyroBiasDegPerS, noiseSdDegPerS: PHONE.gyroNoiseSdDegPerS, seed });
+  const world = new SensorWorld(cdp, { rateHz: PHONE.rateHz, biasDegPerS: PHONE.gyroBiasDegPerS, noiseSdDegPerS: PHONE.gyroNoiseSdDegPerS, seed, accelerometerNegated });
   await world.enable();
   world.still("flat");
   world.start();
@@ -77,15 +77,21 @@ for (const displayMode of ["cursor", "view"] as const) {
   });
 }
 
-for (const displayMode of ["cursor", "view"] as const) {
-  test(`tilt-rate, ${displayMode} mode: tilting the emulated device drives the aim; replay, bias and rate agree`, async ({ page }) => {
+const tiltCases = [
+  { displayMode: "cursor", negated: false, name: "tilt-rate, cursor mode: tilting the emulated device drives the aim; replay, bias and rate agree" },
+  { displayMode: "view", negated: false, name: "tilt-rate, view mode: tilting the emulated device drives the aim; replay, bias and rate agree" },
+  { displayMode: "cursor", negated: true, name: "tilt-rate on a device that reports acceleration negated: the device check turns it round and records it; the aim follows the tilt" },
+] as const;
+for (const { displayMode, negated, name } of tiltCases) {
+  test(name, async ({ page }) => {
     test.setTimeout(150_000); // a minute or less; several on a shared, loaded machine
     const design = techniqueDesign("tilt-rate", displayMode, { selection: "button" });
     const config = onlyConfig(design);
-    const p = await oneParticipant(db, `Tilt ${displayMode}`, design);
-    const world = await withSensors(page, 12);
+    const p = await oneParticipant(db, `Tilt ${displayMode}${negated ? " negated" : ""}`, design);
+    const world = await withSensors(page, 12, false, negated);
     await page.goto(`/s/${p.token}`);
-    await reachTask(page, { motion: true });
+    // tilt-rate takes "up" from the accelerometer: the device check asks for the tilting part too
+    await reachTask(page, { motion: true, tilt: world });
     // Closed loop, as a person would: tilt towards the highlighted target (the further away, the
     // more), level the device near it, press Space. Tilting the right edge down is a tilt to
     // the right; tilting the top edge away, forward (science.md §8 signs).
@@ -126,6 +132,20 @@ for (const displayMode of ["cursor", "view"] as const) {
     await world.stop();
     const s = await expectReplayAgrees(db, p.id, config, ["generic-sensor"]);
     expectBiasAndRate(s);
+    if (!negated) {
+      // the emulated accelerometer reads +9.8 m/s² on z lying flat, screen up (W3C Device
+      // Orientation and Motion), and turns with the gyroscope: the sign check finds it normal
+      expect(s.device.gravitySign).toBe("normal");
+      expect(s.quality.accelerometerInverted ?? false).toBe(false);
+    } else {
+      // −9.8 on z lying flat, screen up, against the W3C's +9.8: negated as a whole (which the
+      // gyroscope comparison cannot see: dĝ/dt = −ω × ĝ holds for −ĝ too), so turned round and recorded
+      expect(s.device.gravitySign).toBe("inverted");
+      expect(s.quality.accelerometerInverted).toBe(true);
+      // and the aim follows the tilt: "up" taken the wrong way round reverses both tilt axes, so
+      // the corrections would drive the aim away and no press would land (at most 2 of 5 by chance)
+      expect(hitsOf(s), "hits of 5").toBeGreaterThanOrEqual(3);
+    }
   });
 }
 

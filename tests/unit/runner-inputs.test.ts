@@ -124,4 +124,12 @@ describe("the monitor's input details", () => {
     expect(describeInputDetails(inputDetails(q, null)!)).toBe("Generic Sensor API + Gamepad API, 60 Hz, input age 9.3 ms median, 17.1 ms p95 (sequence)");
     expect(describeInputDetails(inputDetails({ inputApis: ["pointer-lock"], sampleRateHz: 125, pointerLockRaw: false }, null)!)).toContain("mouse not raw");
   });
+  it("say when the device check found the accelerometer negated (and the runner turns it round) or an axis mirrored", () => {
+    const q = { sampleRateHz: 60, inputApis: ["device-motion"] };
+    expect(inputDetails(q, { gravitySign: "inverted" })?.gravitySign).toBe("inverted");
+    expect(describeInputDetails(inputDetails(q, { gravitySign: "inverted" })!)).toContain("accelerometer negated, turned round");
+    expect(describeInputDetails(inputDetails(null, { inputApis: ["device-motion"], gravitySign: "mirrored" })!)).toContain("mirrored, refused");
+    expect(inputDetails(q, { gravitySign: "sideways" })?.gravitySign).toBeNull();
+    expect(inputDetails(q, null)?.gravitySign).toBeNull();
+  });
 });

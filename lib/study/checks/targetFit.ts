@@ -1,9 +1,10 @@
+import { FIT_MARGIN_PX } from "@/lib/runner/fit";
+import { VIEW_VERTICAL_FOV_DEG } from "@/lib/runner/perspective";
 import type { DeviceClass } from "./deviceClasses";
 
-/** The runner's vertical field of view in view mode, degrees (components/participant/TaskCanvas.tsx). */
-export const VIEW_VERTICAL_FOV_DEG = 60;
-/** Clear space kept around the ring, CSS px each side. */
-export const FIT_MARGIN_PX = 8;
+// The runner's own values (its view's vertical field of view; the clear space its fit check
+// keeps around the ring, CSS px each side), so the design page checks what participants will see.
+export { FIT_MARGIN_PX, VIEW_VERTICAL_FOV_DEG };
 
 type TaskLike = { type: "ring" | "strip"; displayMode: "cursor" | "view"; unit: "px" | "mm" | "deg-visual" | "deg-view"; targetsPerRing: number };
 
