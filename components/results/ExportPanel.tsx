@@ -62,6 +62,7 @@ export function ExportPanel({ studyId, canExport }: { studyId: number; canExport
       {error && <p className="field-error" role="alert">{error}</p>}
       </> : <p className="text-sm">The study&apos;s editors and owners start exports; as a viewer you can see and download the archives below.</p>}
       {jobs.length > 0 && (
+        <div className="overflow-x-auto">
         <table>
           <caption className="caption-bottom pt-1 text-left text-sm text-slate-700">Archives of this study, newest first. Check a download with its SHA-256.</caption>
           <thead><tr><th>started</th><th>by</th><th>status</th><th>size</th><th>SHA-256</th><th>k</th><th></th></tr></thead>
@@ -89,6 +90,7 @@ export function ExportPanel({ studyId, canExport }: { studyId: number; canExport
             ))}
           </tbody>
         </table>
+        </div>
       )}
       {jobs[0]?.warnings.map((w) => <p key={w} className="notice" role="status">Warning: {w}</p>)}
     </section>

@@ -42,7 +42,7 @@ export function ResultsDashboard({ studyId, canExport = false }: { studyId: numb
       <p className="text-sm text-slate-700">Computed {new Date(data.computedAt).toLocaleTimeString()}; refreshes on its own while participants take part. <span className="print:hidden">Print this page for a paper copy.</span></p>
       {!data.hasDesign && <p className="notice">This study has no design yet.</p>}
       {view && (
-        <section className="card space-y-2" aria-labelledby="progress-title">
+        <section className="card space-y-2 overflow-x-auto" aria-labelledby="progress-title">
           <h2 id="progress-title">Progress</h2>
           <ProgressTable view={view} />
         </section>
