@@ -305,10 +305,16 @@ export function TaskCanvas(props: {
         } else if (e.button === 0 && setup.selection !== "dwell") select(e.timeStamp);
         return;
       }
+      // the right mouse button is the aim control (while-aiming), never a selection
+      if (e.pointerType === "mouse" && e.button === 2) {
+        mouseAim = true;
+        updateControls(e.timeStamp);
+        return;
+      }
       if (paths.pointer === "none" && (setup.selection === "tap" || setup.selection === "click")) select(e.timeStamp);
     };
     const onPointerUp = (e: PointerEvent): void => {
-      if (paths.pointer === "lock" && e.button === 2) {
+      if (e.button === 2 && (paths.pointer === "lock" || e.pointerType === "mouse")) {
         mouseAim = false;
         updateControls(e.timeStamp);
       }

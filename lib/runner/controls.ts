@@ -54,7 +54,7 @@ export interface ControlSet {
   select: boolean;
   /** Hold to pause the input (clutch): techniques with a motion or stick channel. */
   clutch: boolean;
-  /** Hold to aim: activation "while aiming". */
+  /** Hold to aim: activation "while-aiming", which gates the device channels (motion, tilt-rate) only. */
   aim: boolean;
   /** Recenter: techniques with an orientation reference (motion channels, the heading stick). */
   recenter: boolean;
@@ -65,7 +65,8 @@ export interface ControlSet {
  *
  * Purpose: show only what does something: pausing (the clutch) where a device channel moves the
  * aim (a mouse or a finger is lifted instead), recentring where there is a reference to reset,
- * an aim control only when motion acts while it is held. Source: science.md §8 (clutch,
+ * an aim control only when motion acts while it is held (activation gates the device channels,
+ * not the stick or a pointer: lib/motion/stages/controls.ts). Source: science.md §8 (clutch,
  * activation, recenter). Cost: O(1).
  * @throws never.
  * @example controlSet("mouse", { clutchButton: 0, aimButton: 1, recenterButton: 2, activation: "always", stickMode: "rate" }, "click").clutch // false
@@ -76,7 +77,7 @@ export function controlSet(technique: Technique, c: Pick<TransferConfig, "clutch
   return {
     select: selection === "button",
     clutch: device && c.clutchButton !== null,
-    aim: c.activation === "while-aiming" && c.aimButton !== null,
+    aim: usesMotion(technique) && c.activation === "while-aiming" && c.aimButton !== null,
     recenter: (usesMotion(technique) || heading) && c.recenterButton !== null,
   };
 }
@@ -145,7 +146,9 @@ export function controlHelp(
     aim,
     select: select || "use the Select button",
     pause: set.clutch ? `To move your hand back without moving the aim, ${hold("Pause", CONTROL_KEYS.clutch, c.clutchButton)}.` : null,
-    aimHold: set.aim ? `The aim moves only while you ${hold("Aim", CONTROL_KEYS.aim, c.aimButton, technique === "mouse" ? "hold the right mouse button" : undefined)}.` : null,
+    aimHold: set.aim
+      ? `${technique === "motion" || technique === "tilt-rate" ? "The aim moves" : "Turning the device moves the aim"} only while you ${hold("Aim", CONTROL_KEYS.aim, c.aimButton, "hold the right mouse button")}${technique === "motion+stick" ? "; the thumbstick works at any time" : technique === "motion+touch" ? "; the touch drag works at any time" : ""}.`
+      : null,
     recenter: set.recenter
       ? `${or([ctx.touchScreen && "The Recenter button", ctx.keyboard && `the ${CONTROL_KEYS.recenter} key`, pad && c.recenterButton !== null && controllerButtonName(c.recenterButton)])} makes the way you hold the device now the new starting point; the aim stays where it is.`.replace(/^./, (m) => m.toUpperCase())
       : null,

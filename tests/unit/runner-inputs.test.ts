@@ -42,7 +42,11 @@ describe("controls", () => {
     expect(controlSet("motion", config(), "button")).toEqual({ select: true, clutch: true, aim: false, recenter: true });
     expect(controlSet("stick", config(), "tap").recenter).toBe(false);
     expect(controlSet("stick", config({ stickMode: "heading" as TransferConfig["stickMode"] }), "tap").recenter).toBe(true);
-    expect(controlSet("touch", config({ activation: "while-aiming" }), "tap").aim).toBe(true);
+    // activation gates the device channels only (docs/configuration.md, Buttons): no aim control where it would do nothing
+    expect(controlSet("touch", config({ activation: "while-aiming" }), "tap").aim).toBe(false);
+    expect(controlSet("mouse", config({ activation: "while-aiming" }), "click").aim).toBe(false);
+    expect(controlSet("stick", config({ activation: "while-aiming" }), "button").aim).toBe(false);
+    expect(controlSet("motion+touch", config({ activation: "while-aiming" }), "tap").aim).toBe(true);
   });
   it("tell each technique which control selects, naming only controls the device has", () => {
     const phone = { touchScreen: true, keyboard: false, controller: false };
@@ -55,6 +59,8 @@ describe("controls", () => {
     expect(controlHelp("mouse", config(), "click", 3, 600, "cursor", desk)).toMatchObject({ select: "click", pause: null, recenter: null });
     expect(controlHelp("motion", config(), "dwell", 3, 800, "cursor", phone).select).toContain("0.8 s");
     expect(controlHelp("motion", config(), "tap", 3, 600, "cursor", phone).aim).toBe("Turn your device to move the cross.");
+    expect(controlHelp("motion+stick", config({ activation: "while-aiming" }), "button", 3, 600, "view", { ...desk, controller: true }).aimHold)
+      .toBe("Turning the device moves the aim only while you hold A, hold the right mouse button or hold the right face button (B, or circle); the thumbstick works at any time.");
     expect(controlHelp("motion", config(), "tap", 3, 600, "cursor", phone).recenter).toMatch(/^The Recenter button makes the way you hold the device now the new starting point/);
   });
 });
