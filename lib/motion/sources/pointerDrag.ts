@@ -9,6 +9,42 @@ export interface PointerDragOptions {
   onTap?: (tMs: number) => void;
 }
 
+/** The three handlers of a pointer source (`up` also hears pointercancel). */
+interface PointerHandlers {
+  down: (e: PointerEvent) => void;
+  move: (e: PointerEvent) => void;
+  up: (e: PointerEvent) => void;
+}
+
+/** Attaches a pointer source's listeners to the element; returns what detaches them. */
+function attachPointer(element: HTMLElement, h: PointerHandlers): () => void {
+  element.addEventListener("pointerdown", h.down);
+  element.addEventListener("pointermove", h.move);
+  element.addEventListener("pointerup", h.up);
+  element.addEventListener("pointercancel", h.up);
+  return () => {
+    element.removeEventListener("pointerdown", h.down);
+    element.removeEventListener("pointermove", h.move);
+    element.removeEventListener("pointerup", h.up);
+    element.removeEventListener("pointercancel", h.up);
+  };
+}
+
+/** Every coalesced event of a move (W3C Pointer Events `getCoalescedEvents`), or the event itself. */
+function coalesced(e: PointerEvent): PointerEvent[] {
+  const events = typeof e.getCoalescedEvents === "function" ? e.getCoalescedEvents() : [];
+  return events.length > 0 ? events : [e];
+}
+
+/** Keeps the pointer's events on the element while it is down (`setPointerCapture`). */
+function capture(element: HTMLElement, pointerId: number): void {
+  try {
+    element.setPointerCapture(pointerId);
+  } catch {
+    /* a synthetic or already-released pointer */
+  }
+}
+
 /**
  * Pointer or touch drag source (createPointerDragSource).
  *
@@ -23,7 +59,7 @@ export interface PointerDragOptions {
  * @example await createPointerDragSource(surface, { tapSlopPx: 10, onTap: (t) => select(t) }).start(sink);
  */
 export function createPointerDragSource(element: HTMLElement, options: PointerDragOptions = {}): SampleSource {
-  let down: ((e: PointerEvent) => void) | null = null, move: ((e: PointerEvent) => void) | null = null, up: ((e: PointerEvent) => void) | null = null;
+  let detach: (() => void) | null = null;
   let active = -1, lastX = 0, lastY = 0, startX = 0, startY = 0, dragging = false;
   const slop = options.onTap ? (options.tapSlopPx ?? 10) : 0;
   return {
@@ -36,46 +72,35 @@ export function createPointerDragSource(element: HTMLElement, options: PointerDr
         lastY = c.clientY;
         sink(f);
       };
-      down = (e) => {
-        if (active !== -1 || (e.pointerType === "mouse" && e.button !== 0)) return;
-        active = e.pointerId;
-        lastX = startX = e.clientX;
-        lastY = startY = e.clientY;
-        dragging = slop === 0;
-        try {
-          element.setPointerCapture(e.pointerId);
-        } catch {
-          /* a synthetic or already-released pointer */
-        }
-      };
-      move = (e) => {
-        if (e.pointerId !== active) return;
-        const events = typeof e.getCoalescedEvents === "function" ? e.getCoalescedEvents() : [];
-        for (const c of events.length > 0 ? events : [e]) {
-          if (!dragging) {
-            if (Math.hypot(c.clientX - startX, c.clientY - startY) <= slop) continue;
-            dragging = true; // the held-back movement goes out with this event
+      detach = attachPointer(element, {
+        down: (e) => {
+          if (active !== -1 || (e.pointerType === "mouse" && e.button !== 0)) return;
+          active = e.pointerId;
+          lastX = startX = e.clientX;
+          lastY = startY = e.clientY;
+          dragging = slop === 0;
+          capture(element, e.pointerId);
+        },
+        move: (e) => {
+          if (e.pointerId !== active) return;
+          for (const c of coalesced(e)) {
+            if (!dragging) {
+              if (Math.hypot(c.clientX - startX, c.clientY - startY) <= slop) continue;
+              dragging = true; // the held-back movement goes out with this event
+            }
+            emit(c);
           }
-          emit(c);
-        }
-      };
-      up = (e) => {
-        if (e.pointerId !== active) return;
-        active = -1;
-        if (!dragging && e.type === "pointerup") options.onTap?.(e.timeStamp);
-      };
-      element.addEventListener("pointerdown", down);
-      element.addEventListener("pointermove", move);
-      element.addEventListener("pointerup", up);
-      element.addEventListener("pointercancel", up);
+        },
+        up: (e) => {
+          if (e.pointerId !== active) return;
+          active = -1;
+          if (!dragging && e.type === "pointerup") options.onTap?.(e.timeStamp);
+        },
+      });
     },
     stop() {
-      if (down) element.removeEventListener("pointerdown", down);
-      if (move) element.removeEventListener("pointermove", move);
-      if (up) {
-        element.removeEventListener("pointerup", up);
-        element.removeEventListener("pointercancel", up);
-      }
+      detach?.();
+      detach = null;
       active = -1;
     },
   };
@@ -94,47 +119,35 @@ export function createPointerDragSource(element: HTMLElement, options: PointerDr
  * @example await createTouchDirectSource(canvas, (t) => select(t)).start(sink);
  */
 export function createTouchDirectSource(element: HTMLElement, onDown?: (tMs: number) => void): SampleSource {
-  let down: ((e: PointerEvent) => void) | null = null, move: ((e: PointerEvent) => void) | null = null, up: ((e: PointerEvent) => void) | null = null;
+  let detach: (() => void) | null = null;
   let active = -1, left = 0, top = 0;
   return {
     kind: "touch-direct",
     async start(sink) {
       element.style.touchAction = "none";
       const at = (c: PointerEvent): void => sink({ tMs: c.timeStamp, inputMs: c.timeStamp, position: { x: c.clientX - left, y: c.clientY - top } });
-      down = (e) => {
-        if (active !== -1 || (e.pointerType === "mouse" && e.button !== 0)) return;
-        active = e.pointerId;
-        const r = element.getBoundingClientRect();
-        left = r.left;
-        top = r.top;
-        try {
-          element.setPointerCapture(e.pointerId);
-        } catch {
-          /* a synthetic or already-released pointer */
-        }
-        at(e);
-        onDown?.(e.timeStamp);
-      };
-      move = (e) => {
-        if (e.pointerId !== active) return;
-        const events = typeof e.getCoalescedEvents === "function" ? e.getCoalescedEvents() : [];
-        for (const c of events.length > 0 ? events : [e]) at(c);
-      };
-      up = (e) => {
-        if (e.pointerId === active) active = -1;
-      };
-      element.addEventListener("pointerdown", down);
-      element.addEventListener("pointermove", move);
-      element.addEventListener("pointerup", up);
-      element.addEventListener("pointercancel", up);
+      detach = attachPointer(element, {
+        down: (e) => {
+          if (active !== -1 || (e.pointerType === "mouse" && e.button !== 0)) return;
+          active = e.pointerId;
+          const r = element.getBoundingClientRect();
+          left = r.left;
+          top = r.top;
+          capture(element, e.pointerId);
+          at(e);
+          onDown?.(e.timeStamp);
+        },
+        move: (e) => {
+          if (e.pointerId === active) for (const c of coalesced(e)) at(c);
+        },
+        up: (e) => {
+          if (e.pointerId === active) active = -1;
+        },
+      });
     },
     stop() {
-      if (down) element.removeEventListener("pointerdown", down);
-      if (move) element.removeEventListener("pointermove", move);
-      if (up) {
-        element.removeEventListener("pointerup", up);
-        element.removeEventListener("pointercancel", up);
-      }
+      detach?.();
+      detach = null;
       active = -1;
     },
   };
