@@ -68,6 +68,9 @@ async function round(url: string, db: ReturnType<typeof fixtureDb>, r: number, r
   const sessions = await Promise.all(fx.participants.map(async (p) => {
     const res = await fetch(`${url}/api/session/${p.token}/consent`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ consentVersionId: fx.consentVersionId, versionHash: fx.consentHash, agreed: ["s1", "s2", "s3"], typedName: "Bench Person", screenShortSidePx: 800 }) });
     if (res.status !== 201) throw new Error(`consent: ${res.status} ${await res.text()}`);
+    // the condition order comes with a counterbalancing place when the tasks start, not at consent
+    const started = await fetch(`${url}/api/session/${p.token}/start`, { method: "POST" });
+    if (started.status !== 200) throw new Error(`start: ${started.status} ${await started.text()}`);
     const state = (await (await fetch(`${url}/api/session/${p.token}`)).json()) as SessionState;
     const plan = planSession(design, state.order!, state.planSeed!);
     const bodies = plan.map((s) => JSON.stringify(batchFor(design, p.id, s, 600)));
