@@ -3,7 +3,6 @@ import { useEffect, useRef, useState } from "react";
 import type { Technique } from "@/lib/motion/config";
 import { sampleRateReport } from "@/lib/motion/calibration/sampleRateReport";
 import { estimateBiasAtRest } from "@/lib/motion/calibration/biasAtRest";
-import { checkGravitySign } from "@/lib/motion/calibration/gravitySignCheck";
 import type { MotionSample } from "@/lib/motion/sample";
 import { deviceVerdict, type DeviceInputs } from "@/lib/runner/deviceCheck";
 import { inputPathsFor, usesMotion } from "@/lib/runner/inputPaths";
@@ -125,6 +124,8 @@ export function DeviceStep(props: { techniques: Technique[]; displayMode: "curso
     setState("tilting");
     setMessage(null);
     const recording = await recordMotion(TILT_MS).catch(() => null);
+    // loaded only by studies that need it (the participant route stays small)
+    const { checkGravitySign } = await import("@/lib/motion/calibration/gravitySignCheck");
     const result = checkGravitySign({ posture: "flat", held: first.held, tilting: recording?.samples ?? [] });
     if (result.verdict === "fine" || result.verdict === "inverted") {
       still.current = null;

@@ -13,7 +13,7 @@ import { errorMessage, postSession } from "./api";
 import { openSessionStore, type SessionStore } from "./store";
 import { createUploader, type Uploader, type UploadStatus } from "./uploader";
 import { usesMotion } from "@/lib/runner/inputPaths";
-import { gravityCheckNeeded } from "@/lib/motion/calibration/gravitySignCheck";
+import { gravityCheckNeeded } from "@/lib/motion/calibration/gravityCheckNeeded";
 import { controlHelp, type ControlContext } from "@/lib/runner/controls";
 import { TaskCanvas, type FinishedSequence, type TaskSetup } from "./TaskCanvas";
 import { BreakStep, ConditionQuestionnaire, ConsentStep, FinalQuestionnaire, InfoStep, InstructionsStep, type TechniqueControls } from "./Steps";

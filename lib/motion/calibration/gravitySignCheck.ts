@@ -1,5 +1,3 @@
-import type { TransferConfig } from "../config";
-import { usesChannel } from "../engineCore";
 import type { MotionSample } from "../sample";
 import { checkAccelGyroAxes, type AccelGyroAxesCheck } from "./accelGyroAxesCheck";
 import { checkGravityPosture, type GravityPosture, type GravityPostureCheck } from "./gravityPostureCheck";
@@ -44,11 +42,4 @@ export function checkGravitySign(input: { posture: GravityPosture; held: readonl
   return posture.verdict === "inverted" ? result("inverted", true, false, posture.message) : result("fine", false, false, posture.message);
 }
 
-/**
- * Whether a configuration reads "up" from the accelerometer (gravityCheckNeeded): the gravity
- * and adaptive frames and tilt-rate do, so their studies run {@link checkGravitySign}. Cost: O(1).
- * @example gravityCheckNeeded(parseTransferConfig({ frame: "adaptive" })) // true
- */
-export function gravityCheckNeeded(config: Pick<TransferConfig, "technique" | "frame">): boolean {
-  return usesChannel(config.technique, "tilt") || (usesChannel(config.technique, "motion") && config.frame !== "device");
-}
+export { gravityCheckNeeded } from "./gravityCheckNeeded";
