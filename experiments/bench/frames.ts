@@ -67,6 +67,9 @@ try {
         const p = await oneParticipant(db, `Frame bench ${t.technique}`, design);
         const touchScreen = t.technique === "touch" || t.technique === "motion+touch";
         const context = await browser.newContext({ viewport: { width: 1280, height: 800 }, bypassCSP: true, hasTouch: touchScreen });
+        // tsx (esbuild, keepNames) wraps named functions inside the fixtures' page scripts in __name(...); the
+        // page has no such helper, so an init script (the gamepad stand-in) threw and no controller appeared
+        await context.addInitScript("globalThis.__name ??= (f) => f;");
         const page: Page = await context.newPage();
         page.setDefaultTimeout(30_000);
         const motion = t.technique.startsWith("motion");
