@@ -164,6 +164,9 @@ export function DeviceStep(props: { techniques: Technique[]; displayMode: "curso
       )}
       {state === "denied" && <PermissionHelp />}
       {message && <p className="notice" role="alert">{message}</p>}
+      {state === "refused" && props.screenedReturn && (
+        <p>If this device cannot take part, you can <a href={props.screenedReturn} data-testid="screened-return">return to the recruitment site</a>; thank you for your time.</p>
+      )}
       {state === "tilt" || state === "tilting" ? (
         <button type="button" className="btn w-full sm:w-auto" disabled={state === "tilting"} onClick={() => void tilt()}>
           {state === "tilting" ? "Tilting… forward and back, then side to side" : "Start tilting"}
