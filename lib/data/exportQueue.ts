@@ -74,7 +74,10 @@ export async function claimExports(db: Knex, capacity = env.EXPORT_CONCURRENCY, 
     if (Number(lock?.got) !== 1) return [] as Claimed[];
     try {
       stale = await failStaleJobs(trx, now);
-      const running = await trx("exports").where({ status: "running" }).pluck("study_id") as number[];
+      // a locking read: GET_LOCK is released before this transaction commits, so a plain read could
+      // see the snapshot from before another dispatcher's claims were committed (and start a second
+      // job of one study); FOR UPDATE waits for those rows and reads what was committed
+      const running = await trx("exports").where({ status: "running" }).forUpdate().pluck("study_id") as number[];
       const busy = new Set(running);
       let free = capacity - running.length;
       const waiting = await trx("exports as e").join("users as u", "u.id", "e.created_by").where("e.status", "queued").orderBy("e.id")
