@@ -100,6 +100,30 @@ describe("the queue", () => {
     expect(peak).toBeLessThanOrEqual(2);
   });
 
+  it("attack: a dispatcher that claims while another's claim is not yet committed does not start a second job of that study", async () => {
+    const fx = await createSessionStudy(db, "Queue race", motionDesign, 0);
+    const first = await requestExport(db, owner, fx.studyId, OPTIONS);
+    const second = await requestExport(db, owner, fx.studyId, OPTIONS);
+    // another server's dispatcher has marked the first job running (and let go of the queue lock)
+    // but has not committed yet: the claim below must wait for it, not read the older snapshot
+    let commit!: () => void;
+    const held = new Promise<void>((r) => (commit = r));
+    const marked = new Promise<void>((markedDone) => {
+      void db.transaction(async (trx) => {
+        await trx("exports").where({ id: first }).update({ status: "running", stage: "starting", started_at: new Date(), heartbeat_at: new Date() });
+        markedDone();
+        await held;
+      });
+    });
+    await marked;
+    const claiming = claimExports(db, 5);
+    setTimeout(commit, 500);
+    expect((await claiming).map((c) => c.id)).not.toContain(second);
+    expect(await statusOf(first)).toBe("running");
+    expect(await statusOf(second)).toBe("queued");
+    await db("exports").where({ study_id: fx.studyId }).update({ status: "failed" });
+  });
+
   it("a running job whose process stopped beating (its server was killed) is failed, saying so, and its slot is free", async () => {
     const fx = await createSessionStudy(db, "Queue dead job", motionDesign, 0);
     const id = await requestExport(db, owner, fx.studyId, OPTIONS);
